@@ -1,0 +1,131 @@
+package main
+
+import (
+	"errors"
+	"flag"
+	"fmt"
+	"io"
+	"sort"
+	"strings"
+)
+
+// Exit codes.
+const (
+	exitOK      = 0
+	exitFailure = 1
+	exitUsage   = 2
+)
+
+// command is one subcommand of earshot.
+type command struct {
+	name    string
+	summary string
+	run     func(args []string, stdout, stderr io.Writer) int
+}
+
+var commands []command
+
+func init() {
+	commands = []command{
+		{"groundwave", "ground-wave field strength over homogeneous or mixed ground", runGroundwave},
+		{"demo", "ground-wave table for the embedded demo scenario", runDemo},
+	}
+}
+
+const topUsage = `earshot: what will a simple diode-detector receiver hear here?
+
+Usage:
+  earshot <command> [flags]
+
+Commands:
+%s
+Run "earshot <command> --help" for the flags of a command.
+`
+
+func usageText() string {
+	var b strings.Builder
+	cs := append([]command(nil), commands...)
+	sort.Slice(cs, func(i, j int) bool { return cs[i].name < cs[j].name })
+	for _, c := range cs {
+		fmt.Fprintf(&b, "  %-12s %s\n", c.name, c.summary)
+	}
+	return fmt.Sprintf(topUsage, b.String())
+}
+
+// run is the whole program: it returns the exit status.
+func run(args []string, stdout, stderr io.Writer) int {
+	if len(args) == 0 {
+		fmt.Fprintln(stderr, "earshot: no command given (try \"earshot --help\")")
+		return exitUsage
+	}
+	switch args[0] {
+	case "-h", "-help", "--help", "help":
+		fmt.Fprint(stdout, usageText())
+		return exitOK
+	}
+	for _, c := range commands {
+		if c.name == args[0] {
+			return c.run(args[1:], stdout, stderr)
+		}
+	}
+	fmt.Fprintf(stderr, "earshot: unknown command %q (try \"earshot --help\")\n", args[0])
+	return exitUsage
+}
+
+// usageError is an error in the command line: exit status 2.
+type usageError struct{ msg string }
+
+func (e *usageError) Error() string { return e.msg }
+
+func usagef(format string, a ...any) error { return &usageError{fmt.Sprintf(format, a...)} }
+
+// newFlagSet returns a flag set that reports errors to the caller instead
+// of printing them, and prints its help to stdout.
+func newFlagSet(name, synopsis string, stdout io.Writer) *flag.FlagSet {
+	fs := flag.NewFlagSet(name, flag.ContinueOnError)
+	fs.SetOutput(io.Discard)
+	fs.Usage = func() {
+		fmt.Fprintf(stdout, "Usage: earshot %s %s\n\nFlags:\n", name, synopsis)
+		fs.SetOutput(stdout)
+		fs.VisitAll(func(f *flag.Flag) {
+			def := ""
+			if f.DefValue != "" && f.DefValue != "false" {
+				def = fmt.Sprintf(" (default %s)", f.DefValue)
+			}
+			fmt.Fprintf(stdout, "  --%-12s %s%s\n", f.Name, f.Usage, def)
+		})
+		fs.SetOutput(io.Discard)
+	}
+	return fs
+}
+
+// parseFlags parses args; it returns done=true with a status when the
+// command should stop (help shown, or a usage error reported).
+func parseFlags(fs *flag.FlagSet, args []string, stderr io.Writer) (done bool, status int) {
+	err := fs.Parse(args)
+	if errors.Is(err, flag.ErrHelp) {
+		fs.Usage()
+		return true, exitOK
+	}
+	if err != nil {
+		fmt.Fprintf(stderr, "earshot %s: %s\n", fs.Name(), oneLine(err.Error()))
+		return true, exitUsage
+	}
+	if fs.NArg() > 0 {
+		fmt.Fprintf(stderr, "earshot %s: unexpected argument %q\n", fs.Name(), fs.Arg(0))
+		return true, exitUsage
+	}
+	return false, exitOK
+}
+
+// report prints err as one line and returns the exit status for it.
+func report(name string, err error, stderr io.Writer) int {
+	fmt.Fprintf(stderr, "earshot %s: %s\n", name, oneLine(err.Error()))
+	var ue *usageError
+	if errors.As(err, &ue) {
+		return exitUsage
+	}
+	return exitFailure
+}
+
+func oneLine(s string) string { return strings.Join(strings.Fields(s), " ") }
