@@ -55,6 +55,6 @@ func runDemo(args []string, stdout, stderr io.Writer) int {
 		}
 	}
 	tw.Flush()
-	fmt.Fprintln(stdout, "\nSafety: keep every antenna well clear of power lines, disconnect and ground it in thunderstorms, and follow local electrical codes.")
+	fmt.Fprint(stdout, "\nSafety: keep every antenna well clear of power lines, disconnect and ground it in thunderstorms, and follow local electrical codes.\n")
 	return exitOK
 }

@@ -84,31 +84,35 @@ func usagef(format string, a ...any) error { return &usageError{fmt.Sprintf(form
 func newFlagSet(name, synopsis string, stdout io.Writer) *flag.FlagSet {
 	fs := flag.NewFlagSet(name, flag.ContinueOnError)
 	fs.SetOutput(io.Discard)
-	fs.Usage = func() {
+	fs.Usage = func() {} // the flag package calls it on every error
+	helpText[fs] = func() {
 		fmt.Fprintf(stdout, "Usage: earshot %s %s\n\nFlags:\n", name, synopsis)
-		fs.SetOutput(stdout)
 		fs.VisitAll(func(f *flag.Flag) {
 			def := ""
-			if f.DefValue != "" && f.DefValue != "false" {
+			if f.DefValue != "" && f.DefValue != "false" && f.DefValue != "0" {
 				def = fmt.Sprintf(" (default %s)", f.DefValue)
 			}
 			fmt.Fprintf(stdout, "  --%-12s %s%s\n", f.Name, f.Usage, def)
 		})
-		fs.SetOutput(io.Discard)
 	}
 	return fs
 }
+
+// helpText holds the help printer of each flag set.
+var helpText = map[*flag.FlagSet]func(){}
 
 // parseFlags parses args; it returns done=true with a status when the
 // command should stop (help shown, or a usage error reported).
 func parseFlags(fs *flag.FlagSet, args []string, stderr io.Writer) (done bool, status int) {
 	err := fs.Parse(args)
 	if errors.Is(err, flag.ErrHelp) {
-		fs.Usage()
+		helpText[fs]()
 		return true, exitOK
 	}
 	if err != nil {
-		fmt.Fprintf(stderr, "earshot %s: %s\n", fs.Name(), oneLine(err.Error()))
+		// The flag package names flags with one dash; earshot documents two.
+		msg := strings.NewReplacer("flag -", "flag --", "for -", "for --", "defined: -", "defined: --").Replace(err.Error())
+		fmt.Fprintf(stderr, "earshot %s: %s\n", fs.Name(), oneLine(msg))
 		return true, exitUsage
 	}
 	if fs.NArg() > 0 {

@@ -1,0 +1,157 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"flag"
+	"math"
+	"os"
+	"path/filepath"
+	"regexp"
+	"strings"
+	"testing"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden files in testdata/")
+
+// TestRun calls run with buffers: {args, exit status, stdout and stderr
+// patterns} (after the table tests of Go's cmd/doc).
+func TestRun(t *testing.T) {
+	for _, c := range []struct {
+		name   string
+		args   []string
+		status int
+		stdout string // regexp, "" for empty
+		stderr string // regexp, "" for empty
+	}{
+		{"no command", nil, 2, "", `^earshot: no command given`},
+		{"help", []string{"--help"}, 0, `(?s)groundwave.*demo|demo.*groundwave`, ""},
+		{"unknown command", []string{"frobnicate"}, 2, "", `^earshot: unknown command "frobnicate"`},
+		{"groundwave help", []string{"groundwave", "--help"}, 0, `(?s)very-dry.*--khz.*--path.*--sigma`, ""},
+		{"table", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "1,10"}, 0, `(?s)km\s+dB\(µV/m\).*\n\s+1\s+109\.5`, ""},
+		{"missing khz", []string{"groundwave", "--ground", "sea", "--km", "1"}, 2, "", `^earshot groundwave: --khz is required`},
+		{"zero khz", []string{"groundwave", "--khz", "0", "--ground", "sea", "--km", "1"}, 2, "", `--khz must be between 1 and 100000 kHz, got 0\n$`},
+		{"bad khz", []string{"groundwave", "--khz", "abc", "--ground", "sea", "--km", "1"}, 2, "", `invalid value "abc" for flag --khz`},
+		{"NaN khz", []string{"groundwave", "--khz", "NaN", "--ground", "sea", "--km", "1"}, 2, "", `--khz must be a finite number`},
+		{"negative sigma", []string{"groundwave", "--khz", "1000", "--sigma", "-1", "--epsr", "15", "--km", "1"}, 2, "", `--sigma must be > 0`},
+		{"epsr below 1", []string{"groundwave", "--khz", "1000", "--sigma", "0.01", "--epsr", "0.5", "--km", "1"}, 2, "", `--epsr must be >= 1`},
+		{"sigma alone", []string{"groundwave", "--khz", "1000", "--sigma", "0.01", "--km", "1"}, 2, "", `--sigma and --epsr must be given together`},
+		{"zero km", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "0"}, 2, "", `--km must be > 0`},
+		{"bad km", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "1,x"}, 2, "", `distance 2 "x" is not a number`},
+		{"unknown ground", []string{"groundwave", "--khz", "1000", "--ground", "mud", "--km", "1"}, 2, "", `unknown ground "mud"`},
+		{"bad path", []string{"groundwave", "--khz", "1000", "--path", "20:sea,x:land"}, 2, "", `path segment 2`},
+		{"path and ground", []string{"groundwave", "--khz", "1000", "--path", "20:sea", "--ground", "sea"}, 2, "", `cannot be combined`},
+		{"km beyond path", []string{"groundwave", "--khz", "1000", "--path", "20:sea", "--km", "30"}, 2, "", `beyond the end of --path`},
+		{"bad power", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "1", "--kw", "-3"}, 2, "", `--kw must be > 0`},
+		{"bad height", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "1", "--height-deg", "400"}, 2, "", `--height-deg must be > 0 and <= 270`},
+		{"unknown flag", []string{"groundwave", "--bogus", "1"}, 2, "", `flag provided but not defined: --bogus`},
+		{"stray argument", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "1", "extra"}, 2, "", `unexpected argument "extra"`},
+		{"outside validated range", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "8000"}, 0, `8000`, `warning: distance: 8000 km is outside the validated`},
+		{"demo", []string{"demo"}, 0, `(?s)invented.*CFX-1.*Safety`, ""},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			var stdout, stderr bytes.Buffer
+			status := run(c.args, &stdout, &stderr)
+			if status != c.status {
+				t.Errorf("run(%q) = %d, want %d; stderr %q", c.args, status, c.status, stderr.String())
+			}
+			check := func(what, got, pattern string) {
+				if pattern == "" {
+					if got != "" {
+						t.Errorf("run(%q) %s = %q, want empty", c.args, what, got)
+					}
+					return
+				}
+				if !regexp.MustCompile(pattern).MatchString(got) {
+					t.Errorf("run(%q) %s = %q, want match for %q", c.args, what, got, pattern)
+				}
+			}
+			check("stdout", stdout.String(), c.stdout)
+			check("stderr", stderr.String(), c.stderr)
+			if c.status != 0 && strings.Count(stderr.String(), "\n") != 1 {
+				t.Errorf("run(%q) stderr has %d lines, want one: %q", c.args, strings.Count(stderr.String(), "\n"), stderr.String())
+			}
+			if strings.Contains(stderr.String(), "goroutine") || strings.Contains(stdout.String(), "NaN") {
+				t.Errorf("run(%q) printed a panic or NaN", c.args)
+			}
+		})
+	}
+}
+
+// TestGroundwaveJSON compares --json output with golden files, and checks
+// its shape: exactly khz, kw, points[{km, e_dbuvm}] plus sigma and epsr for
+// homogeneous runs.
+func TestGroundwaveJSON(t *testing.T) {
+	for _, c := range []struct {
+		golden string
+		args   []string
+		keys   []string
+	}{
+		{"groundwave_homogeneous.json", []string{"groundwave", "--khz", "1000", "--sigma", "0.01", "--epsr", "15", "--km", "1,10,100", "--json"},
+			[]string{"epsr", "khz", "kw", "points", "sigma"}},
+		{"groundwave_path.json", []string{"groundwave", "--khz", "999", "--kw", "10", "--path", "20:sea,35:land,5:0.01/15", "--json"},
+			[]string{"khz", "kw", "points"}},
+	} {
+		var stdout, stderr bytes.Buffer
+		if status := run(c.args, &stdout, &stderr); status != 0 {
+			t.Fatalf("run(%q) = %d: %s", c.args, status, stderr.String())
+		}
+		var m map[string]json.RawMessage
+		if err := json.Unmarshal(stdout.Bytes(), &m); err != nil {
+			t.Fatalf("run(%q): bad JSON: %v", c.args, err)
+		}
+		var keys []string
+		for k := range m {
+			keys = append(keys, k)
+		}
+		if got, want := strings.Join(sortStrings(keys), ","), strings.Join(c.keys, ","); got != want {
+			t.Errorf("run(%q) keys %s, want %s", c.args, got, want)
+		}
+		golden := filepath.Join("testdata", c.golden)
+		if *update {
+			if err := os.WriteFile(golden, stdout.Bytes(), 0o644); err != nil {
+				t.Fatal(err)
+			}
+		}
+		want, err := os.ReadFile(golden)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Equal(stdout.Bytes(), want) {
+			t.Errorf("run(%q) =\n%s\nwant (%s)\n%s", c.args, stdout.String(), golden, want)
+		}
+	}
+}
+
+// TestGroundwaveJSONPhysics: the JSON field at 1 km over sea water is
+// within 0.1 dB of the inverse-distance line, 109.54 dB(µV/m) for 1 kW
+// (Rec. ITU-R P.368 Annex 1; issue acceptance).
+func TestGroundwaveJSONPhysics(t *testing.T) {
+	var stdout, stderr bytes.Buffer
+	if status := run([]string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "1", "--json"}, &stdout, &stderr); status != 0 {
+		t.Fatal(stderr.String())
+	}
+	var out struct {
+		Points []struct {
+			Km     float64 `json:"km"`
+			EDBuVm float64 `json:"e_dbuvm"`
+		} `json:"points"`
+	}
+	if err := json.Unmarshal(stdout.Bytes(), &out); err != nil {
+		t.Fatal(err)
+	}
+	if len(out.Points) != 1 || math.Abs(out.Points[0].EDBuVm-109.54) > 0.1 {
+		t.Errorf("points = %+v, want one point at 109.54 ± 0.1", out.Points)
+	}
+}
+
+func sortStrings(s []string) []string {
+	for i := range s {
+		for j := i + 1; j < len(s); j++ {
+			if s[j] < s[i] {
+				s[i], s[j] = s[j], s[i]
+			}
+		}
+	}
+	return s
+}
