@@ -71,15 +71,20 @@ func NewCurve(f KHz, g Ground) (*Curve, []Warning, error) {
 func (c *Curve) Homogeneous() *Homogeneous { return c.h }
 
 // AttenuationDB returns the interpolated 20·log10|A| at distKm (> 0).
-// Below the grid it evaluates the flat-earth function directly.
+// Outside the grid it evaluates the model directly.
 func (c *Curve) AttenuationDB(distKm float64) float64 {
+	return c.attenuationDB(distKm, math.Log(distKm))
+}
+
+// attenuationDB is AttenuationDB with u = ln(distKm) already known.
+func (c *Curve) attenuationDB(distKm, u float64) float64 {
 	switch {
 	case distKm < curveMinKm:
 		return c.h.AttenuationDB(distKm)
 	case distKm < c.switchKm:
-		return c.flat.Predict(math.Log(distKm))
+		return c.flat.Predict(u)
 	case distKm <= curveMaxKm:
-		return c.sphere.Predict(math.Log(distKm))
+		return c.sphere.Predict(u)
 	}
 	return c.h.AttenuationDB(distKm)
 }
@@ -87,7 +92,8 @@ func (c *Curve) AttenuationDB(distKm float64) float64 {
 // FieldDBuVm returns the interpolated field in dB(µV/m) at distKm for the
 // reference source (1 kW, short monopole), as Homogeneous.FieldDBuVm.
 func (c *Curve) FieldDBuVm(distKm float64) float64 {
-	return RefFieldDBuVm1km - 20*math.Log10(distKm) + c.AttenuationDB(distKm)
+	u := math.Log(distKm)
+	return RefFieldDBuVm1km - (20/math.Ln10)*u + c.attenuationDB(distKm, u)
 }
 
 // curveKey identifies a cached curve.

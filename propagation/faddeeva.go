@@ -19,6 +19,8 @@ import (
 // so it too has full relative accuracy however small it is, and on the
 // imaginary axis the result is real. For finite z in the upper half-plane
 // the result is never NaN or infinite; as |z| → ∞ it tends to i/(√π z).
+// (Expressions such as 1 + i√π z w(z), which tends to −1/(2z²), lose about
+// 2·log10|z| digits to cancellation when formed from w.)
 //
 // In the lower half-plane Faddeeva uses w(z) = 2 exp(−z²) − w(−z), with −z²
 // formed in double-double arithmetic; the absolute error is then about
@@ -88,10 +90,12 @@ func Faddeeva(z complex128) complex128 {
 // relative error is about 2e-15 (−z² is formed in double-double
 // arithmetic); for Re z < 0 the absolute error is about
 // 2e-15·max(2, |erfc(−z)|), a relative error except near the zeros of
-// erfc. For real z it agrees with math.Erfc. Where erfc(z) overflows
-// (roughly where (Im z)² − (Re z)² > 709) the result is infinite with the
-// signs of the true components, as for Faddeeva; Erfc never returns NaN
-// unless z has a NaN component.
+// erfc. For real z it agrees with math.Erfc, and on the imaginary axis the
+// real part is exactly 1. Where erfc(z) overflows (roughly where
+// (Im z)² − (Re z)² > 709) the result is infinite with the signs of the
+// true components, as for Faddeeva. For infinite z, Erfc returns 0 if
+// Re z = +Inf, 2 if Re z = −Inf, and complex(+Inf, +Inf) if only Im z is
+// infinite. Erfc never returns NaN unless z has a NaN component.
 //
 // Reference: M. Abramowitz and I. A. Stegun, Handbook of Mathematical
 // Functions, National Bureau of Standards (1964), eq. 7.1.3, with the
@@ -100,12 +104,25 @@ func Erfc(z complex128) complex128 {
 	if math.IsNaN(real(z)) || math.IsNaN(imag(z)) {
 		return cmplx.NaN()
 	}
-	if real(z) < 0 {
-		return 2 - Erfc(-z)
-	}
-	if math.IsInf(real(z), 1) {
+	switch {
+	case math.IsInf(real(z), 1):
 		return 0
+	case math.IsInf(real(z), -1):
+		return 2
+	case math.IsInf(imag(z), 0):
+		return cmplx.Inf()
+	case real(z) < 0:
+		return 2 - faddeevaErfcRightHalf(-z)
+	case real(z) == 0:
+		// erf(iy) is purely imaginary.
+		return complex(1, imag(faddeevaErfcRightHalf(z)))
 	}
+	return faddeevaErfcRightHalf(z)
+}
+
+// faddeevaErfcRightHalf returns erfc(z) = exp(−z²) w(iz) for finite z,
+// Re z ≥ 0.
+func faddeevaErfcRightHalf(z complex128) complex128 {
 	// Im(iz) = Re z ≥ 0, so w(iz) is evaluated directly, is bounded by 1
 	// and is non-zero (or underflows to zero for enormous |z|).
 	w := Faddeeva(complex(-imag(z), real(z)))
@@ -127,7 +144,8 @@ func Erfc(z complex128) complex128 {
 
 // faddeevaN is the number of terms of Weideman's rational expansion; with
 // N = 40 its relative error is below 2e-15 in |z| < 12, Im z ≥ 0 (checked
-// against 60-digit reference values).
+// against 60-digit reference values). It must be even (see
+// faddeevaWeideman).
 const faddeevaN = 40
 
 // faddeevaR is the radius beyond which the continued fraction is used.
@@ -140,7 +158,7 @@ type faddeevaCoef struct {
 	a [faddeevaN + 1]float64
 }
 
-// faddeevaCoefs computes, once, the coefficients of Weideman (1994) eq. (3.6):
+// faddeevaCoefs computes, once, the coefficients of Weideman (1994):
 // with M = 2N, L = √(N/√2) and t_k = L tan(kπ/(2M)),
 //
 //	a_n = (1/(2M)) Σ_{k=−M+1}^{M−1} exp(−t_k²)(L² + t_k²) cos(kπn/M),
@@ -169,21 +187,22 @@ var faddeevaCoefs = sync.OnceValue(func() *faddeevaCoef {
 
 // faddeevaUpper returns w(z) for Im z ≥ 0 and finite z.
 func faddeevaUpper(z complex128) complex128 {
-	r := cmplx.Abs(z)
-	if r < faddeevaR {
+	x, y := real(z), imag(z)
+	r2 := x*x + y*y // may overflow to +Inf, which selects the last case
+	if r2 < faddeevaR*faddeevaR {
 		return faddeevaWeideman(z)
 	}
 	var n int
 	switch {
-	case r < 16:
+	case r2 < 16*16:
 		n = 12
-	case r < 32:
+	case r2 < 32*32:
 		n = 7
-	case r < 64:
+	case r2 < 64*64:
 		n = 5
-	case r < 128:
+	case r2 < 128*128:
 		n = 4
-	case r < 2048:
+	case r2 < 2048*2048:
 		n = 3
 	default:
 		n = 2
@@ -191,7 +210,7 @@ func faddeevaUpper(z complex128) complex128 {
 	return faddeevaContinuedFraction(z, n)
 }
 
-// faddeevaWeideman evaluates Weideman's (1994) eq. (3.7),
+// faddeevaWeideman evaluates Weideman's (1994) rational expansion
 //
 //	w(z) ≈ 2 p(Z)/(L − iz)² + 1/(√π (L − iz)),  Z = (L + iz)/(L − iz),
 //	p(Z) = Σ_{n=1}^{N} a_n Z^{n−1},
@@ -203,21 +222,43 @@ func faddeevaWeideman(z complex128) complex128 {
 	lc := complex(c.l, 0)
 	inv := 1 / (lc - iz)
 	zz := (lc + iz) * inv
-	p := complex(c.a[faddeevaN], 0)
-	for j := faddeevaN - 1; j >= 1; j-- {
-		p = p*zz + complex(c.a[j], 0)
+	// p(Z) = E(Z²) + Z·O(Z²) with E holding a_1, a_3, …, a_{N−1} and O
+	// holding a_2, a_4, …, a_N: two independent Horner chains in real
+	// arithmetic, which halves the dependency chain.
+	zr, zi := real(zz), imag(zz)
+	wr, wi := zr*zr-zi*zi, 2*zr*zi
+	er, ei := c.a[faddeevaN-1], 0.0
+	or, oi := c.a[faddeevaN], 0.0
+	for j := faddeevaN - 3; j >= 1; j -= 2 {
+		er, ei = er*wr-ei*wi+c.a[j], er*wi+ei*wr
+		or, oi = or*wr-oi*wi+c.a[j+1], or*wi+oi*wr
 	}
+	p := complex(er+or*zr-oi*zi, ei+or*zi+oi*zr)
 	return (2*p*inv + 1/math.SqrtPi) * inv
 }
 
 // faddeevaContinuedFraction evaluates the Laplace continued fraction with
 // n levels below the leading z, from the bottom up; Im z ≥ 0, |z| ≥ 8.
 func faddeevaContinuedFraction(z complex128, n int) complex128 {
-	t := z
-	for k := n; k >= 1; k-- {
-		t = z - complex(float64(k)/2, 0)/t
+	x, y := real(z), imag(z)
+	if math.Abs(x) > 1e150 || y > 1e150 {
+		// Keep clear of overflow in |t|²: use Go's scaled division.
+		t := z
+		for k := n; k >= 1; k-- {
+			t = z - complex(float64(k)/2, 0)/t
+		}
+		return complex(0, 1/math.SqrtPi) / t
 	}
-	return complex(0, 1/math.SqrtPi) / t
+	// t_k = z − (k/2)/t_{k+1}; with n/2 ≤ |z|²/4 every t has |t| ≥ |z|/2,
+	// so |t|² neither overflows nor underflows.
+	tr, ti := x, y
+	for k := n; k >= 1; k-- {
+		d := float64(k) / 2 / (tr*tr + ti*ti)
+		tr, ti = x-tr*d, y+ti*d
+	}
+	// (i/√π)/t = (i/√π)·conj(t)/|t|².
+	d := 1 / (math.SqrtPi * (tr*tr + ti*ti))
+	return complex(ti*d, tr*d)
 }
 
 // faddeevaExpNegSquare returns exp(−x²) for real x, correcting for the

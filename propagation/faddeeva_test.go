@@ -158,12 +158,12 @@ func TestFaddeevaQuadrature(t *testing.T) {
 
 // TestFaddeevaKnownValues checks tabulated values.
 func TestFaddeevaKnownValues(t *testing.T) {
-	const tol = 1e-15
-	cases := []struct {
-		name string
-		z    complex128
-		want complex128
-	}{
+	const tol = 3e-15
+	type knownValue struct {
+		name    string
+		z, want complex128
+	}
+	cases := []knownValue{
 		// Reference: from memory (cross-checked while writing this test
 		// against mpmath 1.3.0 at 30 digits: exp(−z²) erfc(−iz) =
 		// 0.304744205256912592457 + 0.208218938202831627287i).
@@ -177,6 +177,29 @@ func TestFaddeevaKnownValues(t *testing.T) {
 		{"w(1) via Dawson F(1)", 1, complex(math.Exp(-1), 2/math.SqrtPi*0.5380795069127684)},
 		// Reference: w(−x) = conj(w(x)) for real x applied to the row above.
 		{"w(-1) via Dawson F(1)", -1, complex(math.Exp(-1), -2/math.SqrtPi*0.5380795069127684)},
+	}
+	// Reference: computed for this test with mpmath 1.3.0 (Python) in
+	// 60-digit arithmetic as exp(−z²)·erfc(−iz), rounded to 20 digits.
+	// They cover the lower half-plane (where the phase of exp(−z²) must be
+	// formed accurately), the region just above the real axis, both sides
+	// of the |z| = 8 switch, and large |z|.
+	mp := []struct {
+		z, want complex128
+	}{
+		{-5.3 - 4.1i, complex(-5.2352036121188861203e-2, -6.6184388469434384266e-2)},
+		{10.3 - 10.1i, complex(-1.914511792378483652e-3, 5.0026566546898044736e-2)},
+		{0.7 - 0.2i, complex(6.7585300563920423661e-1, 7.8486658479626116462e-1)},
+		{3.7 + 0.01i, complex(4.7006535500767020219e-4, 1.5881914011155012723e-1)},
+		{-6.1 + 1e-7i, complex(1.5819010246960545752e-9, -9.3786735791048972429e-2)},
+		{7.99 + 0.5i, complex(4.5081992655695058098e-3, 7.0889416638291534845e-2)},
+		{-8.01 + 2i, complex(1.6901440749847002716e-2, -6.6677995599468759107e-2)},
+		{20.5 + 0.3i, complex(4.041117237407067427e-4, 2.7548369693802317223e-2)},
+		{-1234.5 + 0.25i, complex(9.255146411189457157e-8, -4.5701882990101522908e-4)},
+		{1e-6 + 1e-6i, complex(9.9999887162083290599e-1, 1.1283771670970170284e-6)},
+		{2.5 + 3.5i, complex(1.0748312840717246998e-1, 7.2887243226424371519e-2)},
+	}
+	for _, c := range mp {
+		cases = append(cases, knownValue{fmt.Sprintf("mpmath w(%v)", c.z), c.z, c.want})
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
@@ -247,26 +270,40 @@ func TestFaddeevaAsymptote(t *testing.T) {
 	}
 }
 
-// TestFaddeevaSwitchContinuity compares the two algorithms on both sides of
-// the |z| = 8 switch, where each is accurate on its own.
+// TestFaddeevaSwitchContinuity checks the continued fraction, with the
+// number of levels Faddeeva chooses, against a more accurate reference on
+// circles at and beyond the |z| = 8 switch.
 func TestFaddeevaSwitchContinuity(t *testing.T) {
-	const tol = 4e-15
-	for k := range 64 {
-		z := cmplx.Rect(faddeevaR, math.Pi*float64(k)/63)
-		// Reference: Weideman's expansion itself (faddeevaWeideman), an
-		// algorithm independent of the continued fraction.
-		want := faddeevaWeideman(z)
-		got := faddeevaContinuedFraction(z, 12)
-		if e := faddeevaRelErr(got, want); e > tol {
-			t.Errorf("continued fraction at %v = %v, Weideman = %v, rel diff %.3g, tol %g", z, got, want, e, tol)
+	const tol = 2e-15
+	for _, r := range []float64{faddeevaR, 8.5, 10, 12, 15.99, 16, 31.99, 32, 63.99, 64, 127.9, 128, 2047, 2048} {
+		for k := range 64 {
+			z := cmplx.Rect(r, math.Pi*float64(k)/63)
+			if k == 63 {
+				z = complex(-r, 0)
+			}
+			var want complex128
+			if r <= 12 {
+				// Reference: Weideman's expansion (faddeevaWeideman), an
+				// algorithm independent of the continued fraction, accurate
+				// to 1e-15 for |z| ≤ 12.
+				want = faddeevaWeideman(z)
+			} else {
+				// Reference: the continued fraction with 40 levels, fully
+				// converged for |z| ≥ 12.
+				want = faddeevaContinuedFraction(z, 40)
+			}
+			got := faddeevaUpper(z)
+			if e := faddeevaRelErr(got, want); e > tol {
+				t.Errorf("faddeevaUpper(%v) = %v, want %v, rel diff %.3g, tol %g", z, got, want, e, tol)
+			}
 		}
 	}
 }
 
 // TestFaddeevaFinite checks that w is finite, non-NaN and bounded by 1 in
 // modulus (|w(z)| ≤ 1 for Im z ≥ 0, A&S 7.1.3 integral with |exp(izt)| ≤ 1)
-// over a dense grid of the closed upper half-plane, and never NaN in the
-// lower half-plane.
+// over a dense grid of the closed upper half-plane, and that w (lower
+// half-plane) and erfc (whole plane) are never NaN.
 func TestFaddeevaFinite(t *testing.T) {
 	radii := []float64{0, 5e-324, 1e-300, 1e-100, 1e200, 1e300, math.MaxFloat64}
 	for e := -12.0; e <= 6; e += 0.05 {
@@ -289,6 +326,13 @@ func TestFaddeevaFinite(t *testing.T) {
 			if wl := Faddeeva(cmplx.Conj(z)); cmplx.IsNaN(wl) {
 				if bad++; bad <= 10 {
 					t.Errorf("Faddeeva(%v) = %v, want no NaN", cmplx.Conj(z), wl)
+				}
+			}
+			for _, ze := range []complex128{z, cmplx.Conj(z)} {
+				if e := Erfc(ze); cmplx.IsNaN(e) {
+					if bad++; bad <= 10 {
+						t.Errorf("Erfc(%v) = %v, want no NaN", ze, e)
+					}
 				}
 			}
 		}
@@ -345,7 +389,7 @@ func TestErfc(t *testing.T) {
 	t.Run("real", func(t *testing.T) {
 		const tol = 1e-14
 		// Reference: Go's standard library math.Erfc on the real axis.
-		for _, x := range []float64{-5, -3, -1, -0.25, 0, 1e-8, 0.5, 1, 2, 5, 10, 20, 26} {
+		for _, x := range []float64{-5, -3, -1, -0.25, 0, 1e-8, 0.5, 1, 2, 5, 5.3, 10, 10.7, 19.9, 20, 23.1, 25.3, 26, 26.4} {
 			want := math.Erfc(x)
 			got := Erfc(complex(x, 0))
 			if e := math.Abs(real(got)-want) / want; e > tol || imag(got) != 0 {
@@ -390,8 +434,23 @@ func TestErfc(t *testing.T) {
 				t.Errorf("Erfc(%v) = %v, want an infinite value", z, got)
 			}
 		}
-		if got := Erfc(40i); imag(got) != math.Inf(-1) {
-			t.Errorf("Erfc(40i) = %v, want imaginary part -Inf", got)
+		if got := Erfc(40i); got != complex(1, math.Inf(-1)) {
+			t.Errorf("Erfc(40i) = %v, want (1-Inf i)", got)
+		}
+	})
+	t.Run("non-finite input", func(t *testing.T) {
+		// Reference: documented behaviour for infinite and NaN input.
+		for _, c := range []struct{ z, want complex128 }{
+			{complex(math.Inf(1), 5), 0},
+			{complex(math.Inf(-1), math.Inf(1)), 2},
+			{complex(3, math.Inf(-1)), cmplx.Inf()},
+		} {
+			if got := Erfc(c.z); got != c.want {
+				t.Errorf("Erfc(%v) = %v, want %v", c.z, got, c.want)
+			}
+		}
+		if got := Erfc(complex(math.NaN(), 1)); !cmplx.IsNaN(got) {
+			t.Errorf("Erfc(NaN+1i) = %v, want NaN", got)
 		}
 	})
 }

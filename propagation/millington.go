@@ -40,11 +40,12 @@ func (p Path) Validate() ([]Warning, error) {
 		return nil, fmt.Errorf("propagation: path must have at least one segment")
 	}
 	for i, s := range p {
-		if err := checkFinite(fmt.Sprintf("segment %d length", i+1), s.LengthKm, "km"); err != nil {
-			return nil, err
-		}
-		if s.LengthKm <= 0 {
-			return nil, &InputError{Field: fmt.Sprintf("segment %d length", i+1), Value: s.LengthKm, Unit: "km", Want: "> 0"}
+		if !(s.LengthKm > 0 && s.LengthKm <= MaxDistKm) {
+			field := fmt.Sprintf("segment %d length", i+1)
+			if err := checkFinite(field, s.LengthKm, "km"); err != nil {
+				return nil, err
+			}
+			return nil, &InputError{Field: field, Value: s.LengthKm, Unit: "km", Want: fmt.Sprintf("> 0 and <= %g", MaxDistKm)}
 		}
 		if err := s.Ground.Validate(); err != nil {
 			return nil, fmt.Errorf("segment %d: %w", i+1, err)
@@ -78,6 +79,9 @@ func MillingtonDBuVm(p Path, curves []FieldCurve) float64 {
 		panic("propagation: MillingtonDBuVm: len(curves) != len(path)")
 	}
 	n := len(p)
+	if n == 1 {
+		return curves[0].FieldDBuVm(p[0].LengthKm) // both passes are this
+	}
 	// Forward pass, from the transmitter.
 	var fwd, d float64
 	for i := 0; i < n-1; i++ {

@@ -50,7 +50,7 @@ func TestMillingtonHand(t *testing.T) {
 // lineCurve is a synthetic field curve a − b·log10(d).
 type lineCurve struct{ a, b float64 }
 
-func (l lineCurve) at(d float64) float64          { return l.a - l.b*math.Log10(d) }
+func (l lineCurve) at(d float64) float64         { return l.a - l.b*math.Log10(d) }
 func (l lineCurve) FieldDBuVm(d float64) float64 { return l.at(d) }
 
 // TestMillingtonProperties: exact for a homogeneous path however it is cut
