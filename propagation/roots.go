@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"sort"
 )
 
 // e2pi3 is e^{−j2π/3}, the rotation between Fock's variable t and the Airy
@@ -129,12 +130,22 @@ func modeRoots(q complex128, n int) ([]complex128, error) {
 }
 
 // duplicateRoots returns the indices of two roots closer than a relative
-// 1e-6, or −1, −1.
+// 1e-6, or −1, −1. Roots are compared in order of their real parts, so the
+// check costs O(n log n).
 func duplicateRoots(roots []complex128) (int, int) {
-	for i := range roots {
-		for j := i + 1; j < len(roots); j++ {
-			if cmplx.Abs(roots[i]-roots[j]) < 1e-6*(1+cmplx.Abs(roots[i])) {
-				return i, j
+	idx := make([]int, len(roots))
+	for i := range idx {
+		idx[i] = i
+	}
+	sort.Slice(idx, func(a, b int) bool { return real(roots[idx[a]]) < real(roots[idx[b]]) })
+	for a, i := range idx {
+		tol := 1e-6 * (1 + cmplx.Abs(roots[i]))
+		for _, j := range idx[a+1:] {
+			if real(roots[j])-real(roots[i]) > tol {
+				break
+			}
+			if cmplx.Abs(roots[i]-roots[j]) < tol {
+				return min(i, j), max(i, j)
 			}
 		}
 	}
