@@ -3,6 +3,6 @@ module earshot
 go 1.26
 
 require (
-	github.com/golang/geo v0.0.0-20260818125358-b200a1149890 // indirect
-	gonum.org/v1/gonum v0.17.0 // indirect
+	github.com/golang/geo v0.0.0-20260818125358-b200a1149890
+	gonum.org/v1/gonum v0.17.0
 )
