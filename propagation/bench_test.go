@@ -1,6 +1,9 @@
 package propagation
 
-import "testing"
+import (
+	"testing"
+	"time"
+)
 
 // BenchmarkCurve measures building one homogeneous curve (mode roots plus
 // the residue series at every grid distance), per regime.
@@ -61,6 +64,31 @@ func BenchmarkPath(b *testing.B) {
 		b.ReportAllocs()
 		for b.Loop() {
 			if _, _, err := DirectPathFieldDBuVm(tx, homog); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+}
+
+// BenchmarkSkyWave measures one sky-wave evaluation at the reference time
+// and one at a given instant (with the hourly loss factor and sun times).
+func BenchmarkSkyWave(b *testing.B) {
+	tx, _ := NewPlace(51.5, -0.1)
+	rx, _ := NewPlace(40.4, -3.7)
+	sp := SkyPath{Tx: tx, Rx: rx, Freq: 999, PowerKW: 100, HeightDeg: 120}
+	b.Run("reference-time", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			if _, err := NightSkyWave(sp); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+	at := time.Date(2025, 1, 15, 22, 0, 0, 0, time.UTC)
+	b.Run("at-instant", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			if _, _, _, err := SkyWaveAt(sp, at); err != nil {
 				b.Fatal(err)
 			}
 		}

@@ -3,6 +3,8 @@ package propagation
 import (
 	"fmt"
 	"math"
+	"sync"
+	"sync/atomic"
 
 	"gonum.org/v1/gonum/integrate/quad"
 )
@@ -43,6 +45,27 @@ func monopolePattern(g, theta float64) float64 {
 // Reference: J. D. Kraus, Antennas (1988) eq. (5-6-11) halved for the
 // monopole image; shared/reference/methods.md §2.3.
 func monopoleResistance(g float64) float64 {
+	if r, ok := resistanceMemo.Load(g); ok {
+		return r.(float64)
+	}
+	r := monopoleResistanceQuad(g)
+	if resistanceMemoLen.Add(1) > 4096 { // a slider can ask for many heights
+		resistanceMemo.Clear()
+		resistanceMemoLen.Store(0)
+	}
+	resistanceMemo.Store(g, r)
+	return r
+}
+
+// resistanceMemo remembers R_m by electrical height: the quadrature costs
+// about 20 µs and a station's mast does not change.
+var (
+	resistanceMemo    sync.Map
+	resistanceMemoLen atomic.Int64
+)
+
+// monopoleResistanceQuad computes R_m by quadrature (see monopoleResistance).
+func monopoleResistanceQuad(g float64) float64 {
 	integrand := func(theta float64) float64 {
 		f := monopolePattern(g, theta)
 		return f * f * math.Cos(theta)

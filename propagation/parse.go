@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"strconv"
 	"strings"
+	"time"
 )
 
 // ParseGround reads a ground given by a standard name (see GroundTypes) or
@@ -71,4 +72,30 @@ func ParseKmList(spec string) ([]float64, error) {
 		out = append(out, d)
 	}
 	return out, nil
+}
+
+// ParsePlace reads "LAT,LON" in decimal degrees (north and east positive).
+func ParsePlace(s string) (Place, error) {
+	a, b, ok := strings.Cut(s, ",")
+	if !ok {
+		return Place{}, fmt.Errorf("propagation: place %q: want LAT,LON in degrees, e.g. 51.5,-0.12", s)
+	}
+	lat, err1 := strconv.ParseFloat(strings.TrimSpace(a), 64)
+	lon, err2 := strconv.ParseFloat(strings.TrimSpace(b), 64)
+	if err1 != nil || err2 != nil {
+		return Place{}, fmt.Errorf("propagation: place %q: want LAT,LON in degrees, e.g. 51.5,-0.12", s)
+	}
+	return NewPlace(lat, lon)
+}
+
+// ParseTime reads an instant in RFC 3339 (2025-01-15T22:00:00Z) or a date
+// (2025-01-15, taken as 00:00 UTC); dateOnly reports the second form.
+func ParseTime(s string) (t time.Time, dateOnly bool, err error) {
+	if t, err := time.Parse(time.RFC3339, s); err == nil {
+		return t, false, nil
+	}
+	if t, err := time.Parse(time.DateOnly, s); err == nil {
+		return t, true, nil
+	}
+	return time.Time{}, false, fmt.Errorf("propagation: time %q: want RFC 3339 (2025-01-15T22:00:00Z) or a date (2025-01-15)", s)
 }

@@ -53,10 +53,13 @@ var flagNames = map[string]string{
 }
 
 // asUsage turns a propagation.InputError into a usage error naming the flag.
-func asUsage(err error) error {
+func asUsage(err error) error { return asUsageWith(err, flagNames) }
+
+// asUsageWith is asUsage with a given field-to-flag table.
+func asUsageWith(err error, names map[string]string) error {
 	var ie *propagation.InputError
 	if errors.As(err, &ie) {
-		if name, ok := flagNames[ie.Field]; ok {
+		if name, ok := names[ie.Field]; ok {
 			unit := ""
 			if ie.Unit != "" {
 				unit = " " + ie.Unit
@@ -64,7 +67,7 @@ func asUsage(err error) error {
 			return usagef("%s must be %s%s, got %g", name, ie.Want, unit, ie.Value)
 		}
 	}
-	return &usageError{err.Error()}
+	return &usageError{strings.TrimPrefix(err.Error(), "propagation: ")}
 }
 
 func runGroundwave(args []string, stdout, stderr io.Writer) int {

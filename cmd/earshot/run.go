@@ -28,6 +28,8 @@ var commands []command
 func init() {
 	commands = []command{
 		{"groundwave", "ground-wave field strength over homogeneous or mixed ground", runGroundwave},
+		{"skywave", "night sky-wave field (ITU-R P.1147 structure) between two places", runSkywave},
+		{"sun", "sunrise, sunset, solar noon and solar elevation", runSun},
 		{"demo", "ground-wave table for the embedded demo scenario", runDemo},
 	}
 }

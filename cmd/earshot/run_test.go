@@ -48,6 +48,21 @@ func TestRun(t *testing.T) {
 		{"stray argument", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "1", "extra"}, 2, "", `unexpected argument "extra"`},
 		{"outside validated range", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "8000"}, 0, `8000`, `warning: distance: 8000 km is outside the validated`},
 		{"demo", []string{"demo"}, 0, `(?s)invented.*CFX-1.*Safety`, ""},
+		{"skywave table", []string{"skywave", "--from", "51.5,-0.1", "--to", "40.4,-3.7", "--khz", "999", "--kw", "100"}, 0, `(?s)slant distance p\s+1280\.56\s+km.*median at SS\+6 h`, ""},
+		{"skywave help", []string{"skywave", "--help"}, 0, `(?s)P\.1147.*--at.*--from.*--to`, ""},
+		{"skywave missing from", []string{"skywave", "--to", "1,1", "--khz", "900"}, 2, "", `--from is required`},
+		{"skywave bad latitude", []string{"skywave", "--from", "91,0", "--to", "1,1", "--khz", "900"}, 2, "", `--from: latitude must be between -90 and 90`},
+		{"skywave bad place", []string{"skywave", "--from", "north", "--to", "1,1", "--khz", "900"}, 2, "", `--from: place "north": want LAT,LON`},
+		{"skywave same place", []string{"skywave", "--from", "50,0", "--to", "50,0", "--khz", "900"}, 2, "", `must be different places`},
+		{"skywave bad khz", []string{"skywave", "--from", "50,0", "--to", "45,0", "--khz", "5"}, 2, "", `--khz must be between 10 and 30000 kHz, got 5`},
+		{"skywave bad at", []string{"skywave", "--from", "50,0", "--to", "45,0", "--khz", "900", "--at", "tonight"}, 2, "", `--at "tonight": want an RFC 3339 instant`},
+		{"skywave bad sunspots", []string{"skywave", "--from", "50,0", "--to", "45,0", "--khz", "900", "--sunspots", "-4"}, 2, "", `--sunspots must be between 0 and 400`},
+		{"skywave short path warns", []string{"skywave", "--from", "50,0", "--to", "50.1,0", "--khz", "900"}, 0, `median`, `warning: distance`},
+		{"sun", []string{"sun", "--at", "2024-06-21", "--lat", "51.4769", "--lon", "0"}, 0, `(?s)sunrise:\s+2024-06-21T03:4[23]:\d\dZ.*sunset:\s+2024-06-21T20:2[01]:\d\dZ`, ""},
+		{"sun polar night", []string{"sun", "--at", "2024-12-21", "--lat", "78", "--lon", "15"}, 0, `(?s)polar night.*sunrise:\s+none`, ""},
+		{"sun bad lat", []string{"sun", "--at", "2024-12-21", "--lat", "95", "--lon", "15"}, 2, "", `--lat must be between -90 and 90 degrees, got 95`},
+		{"sun missing lon", []string{"sun", "--lat", "45"}, 2, "", `--lat and --lon are required`},
+		{"sun bad date", []string{"sun", "--at", "21/12/2024", "--lat", "45", "--lon", "0"}, 2, "", `--at "21/12/2024"`},
 	} {
 		t.Run(c.name, func(t *testing.T) {
 			var stdout, stderr bytes.Buffer
@@ -81,7 +96,7 @@ func TestRun(t *testing.T) {
 // TestGroundwaveJSON compares --json output with golden files, and checks
 // its shape: exactly khz, kw, points[{km, e_dbuvm}] plus sigma and epsr for
 // homogeneous runs.
-func TestGroundwaveJSON(t *testing.T) {
+func TestJSONGolden(t *testing.T) {
 	for _, c := range []struct {
 		golden string
 		args   []string
@@ -91,6 +106,10 @@ func TestGroundwaveJSON(t *testing.T) {
 			[]string{"epsr", "khz", "kw", "points", "sigma"}},
 		{"groundwave_path.json", []string{"groundwave", "--khz", "999", "--kw", "10", "--path", "20:sea,35:land,5:0.01/15", "--json"},
 			[]string{"khz", "kw", "points"}},
+		{"skywave_at.json", []string{"skywave", "--from", "51.5,-0.1", "--to", "40.4,-3.7", "--khz", "999", "--kw", "100", "--at", "2025-01-15T22:00:00Z", "--json"},
+			[]string{"at", "decile_dbuvm", "e_dbuvm", "gain_db", "geomag_lat_deg", "hourly_loss_db", "hours_after_sunset", "k_r", "khz", "km", "kw", "median_dbuvm", "pol_loss_db", "sea_gain_db", "slant_km", "solar_loss_db", "sun_elev_mid_deg", "takeoff_deg", "vertical_wire_corr_db"}},
+		{"sun.json", []string{"sun", "--at", "2024-06-21T12:00:00Z", "--lat", "51.4769", "--lon", "0", "--json"},
+			[]string{"date", "elevation_at", "elevation_deg", "lat", "lon", "solar_noon", "state", "sunrise", "sunset"}},
 	} {
 		var stdout, stderr bytes.Buffer
 		if status := run(c.args, &stdout, &stderr); status != 0 {
