@@ -67,7 +67,7 @@ func asUsageWith(err error, names map[string]string) error {
 			return usagef("%s must be %s%s, got %g", name, ie.Want, unit, ie.Value)
 		}
 	}
-	return &usageError{strings.TrimPrefix(err.Error(), "propagation: ")}
+	return &usageError{trimPkg(err)}
 }
 
 func runGroundwave(args []string, stdout, stderr io.Writer) int {

@@ -30,6 +30,9 @@ func init() {
 		{"groundwave", "ground-wave field strength over homogeneous or mixed ground", runGroundwave},
 		{"skywave", "night sky-wave field (ITU-R P.1147 structure) between two places", runSkywave},
 		{"sun", "sunrise, sunset, solar noon and solar elevation", runSun},
+		{"rig", "the receiving chain stage by stage, and the weakest audible field", runRig},
+		{"coil", "single-layer coil: inductance, Q, or turns for an inductance", runCoil},
+		{"trap", "wave trap against a strong station: parts, notch, cost, verdict", runTrap},
 		{"demo", "ground-wave table for the embedded demo scenario", runDemo},
 	}
 }
@@ -135,3 +138,12 @@ func report(name string, err error, stderr io.Writer) int {
 }
 
 func oneLine(s string) string { return strings.Join(strings.Fields(s), " ") }
+
+// trimPkg returns err's message without its package prefix.
+func trimPkg(err error) string {
+	s := err.Error()
+	for _, p := range []string{"receiver: ", "propagation: "} {
+		s = strings.TrimPrefix(s, p)
+	}
+	return s
+}

@@ -1,0 +1,82 @@
+package main
+
+import (
+	"encoding/json"
+	"flag"
+	"fmt"
+	"io"
+	"math"
+
+	"earshot/propagation"
+	"earshot/receiver"
+)
+
+const coilSynopsis = `--form-mm D --awg N (--turns T | --uh L) [--pitch-mm P] [--khz F] [--json]
+
+A single-layer coil on a round form: its inductance (Nagaoka's current-sheet
+formula with Rosa's round-wire correction), winding length, and its
+resistance and Q at --khz (skin and proximity effect); or, with --uh, the
+close-wound turns that give that inductance.`
+
+type coilJSON struct {
+	FormMm       float64 `json:"form_mm"`
+	AWG          int     `json:"awg"`
+	Turns        float64 `json:"turns"`
+	InductanceUH float64 `json:"inductance_uh"`
+	LengthMm     float64 `json:"length_mm"`
+	KHz          float64 `json:"khz"`
+	ResistanceOh float64 `json:"resistance_ohm"`
+	Q            float64 `json:"q"`
+}
+
+func runCoil(args []string, stdout, stderr io.Writer) int {
+	fs := newFlagSet("coil", coilSynopsis, stdout)
+	form := fs.Float64("form-mm", 0, "form diameter, mm (1–500)")
+	awg := fs.Int("awg", 0, "wire gauge, AWG (0–40), enamelled")
+	turns := fs.Float64("turns", 0, "number of turns (1–2000)")
+	uh := fs.Float64("uh", 0, "wanted inductance, µH (instead of --turns)")
+	pitch := fs.Float64("pitch-mm", 0, "turn spacing, mm (0 = close-wound)")
+	khz := fs.Float64("khz", 1000, "frequency for resistance and Q, kHz (1–30000)")
+	asJSON := fs.Bool("json", false, "print JSON instead of text")
+	if done, status := parseFlags(fs, args, stderr); done {
+		return status
+	}
+	set := map[string]bool{}
+	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	names := map[string]string{"form diameter": "--form-mm", "AWG": "--awg", "turns": "--turns", "pitch": "--pitch-mm", "inductance": "--uh"}
+	switch {
+	case !set["form-mm"] || !set["awg"]:
+		return report("coil", usagef("--form-mm and --awg are required"), stderr)
+	case set["turns"] == set["uh"]:
+		return report("coil", usagef("give exactly one of --turns and --uh"), stderr)
+	case !(*khz >= 1 && *khz <= 30000):
+		return report("coil", usagef("--khz must be between 1 and 30000 kHz, got %g", *khz), stderr)
+	}
+	c := receiver.Coil{FormDiameterMm: *form, AWG: *awg, Turns: *turns, PitchMm: *pitch}
+	if set["uh"] {
+		if set["pitch-mm"] {
+			return report("coil", usagef("--pitch-mm works with --turns only (--uh designs a close-wound coil)"), stderr)
+		}
+		var err error
+		if c, err = receiver.CoilForInductance(*form, *awg, *uh); err != nil {
+			return report("coil", asUsageWith(err, names), stderr)
+		}
+	}
+	if err := c.Validate(); err != nil {
+		return report("coil", asUsageWith(err, names), stderr)
+	}
+	f := propagation.KHz(*khz)
+	out := coilJSON{FormMm: *form, AWG: *awg, Turns: c.Turns, InductanceUH: round4(c.InductanceUH()),
+		LengthMm: round4(c.LengthMm()), KHz: *khz, ResistanceOh: round4(c.ResistanceOhm(f)), Q: math.Round(c.Q(f)*10) / 10}
+	if *asJSON {
+		if err := json.NewEncoder(stdout).Encode(out); err != nil {
+			return report("coil", err, stderr)
+		}
+		return exitOK
+	}
+	fmt.Fprintf(stdout, "Coil: %.2f turns of AWG %d enamelled on a %g mm form\n", out.Turns, out.AWG, out.FormMm)
+	fmt.Fprintf(stdout, "  inductance:      %.2f µH\n", out.InductanceUH)
+	fmt.Fprintf(stdout, "  winding length:  %.1f mm\n", out.LengthMm)
+	fmt.Fprintf(stdout, "  at %g kHz:       %.2f Ω, Q %.0f\n", out.KHz, out.ResistanceOh, out.Q)
+	return exitOK
+}
