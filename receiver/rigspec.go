@@ -33,6 +33,9 @@ type RigSpec struct {
 	AmpOhm     float64 // amplifier input resistance, Ω
 	AmpNoiseUV float64 // amplifier equivalent input noise, µV rms
 	Noise      string  // man-made noise environment name
+	// AntennaTap and DetectorTap fix the taps (fractions of the tank
+	// winding); 0 chooses them for weak signals (BestTaps).
+	AntennaTap, DetectorTap float64
 	Modulation float64 // AM depth, 0–1 (0: DefaultModulation)
 }
 
@@ -45,7 +48,7 @@ func DefaultRigSpec() RigSpec {
 		Kind: "inverted-l", WireM: 40, HeightM: 10, DownleadM: 10, WireMm: 1.6,
 		GroundSystem:  "rod-average",
 		LoadingFormMm: 25, LoadingAWG: 24,
-		TankUH: 230, TankFormMm: 60, TankAWG: 24, CapMinPF: 10, CapMaxPF: 365, StrayPF: 20,
+		TankUH: 240, TankFormMm: 60, TankAWG: 24, CapMinPF: 10, CapMaxPF: 365, StrayPF: 20,
 		Diode: "germanium", Phones: "magnetic-2000",
 		AmpOhm: 10000, AmpNoiseUV: 1,
 		Noise: "rural",
@@ -105,9 +108,14 @@ func (s RigSpec) Build() (Rig, error) {
 	if s.AmpDB != 0 {
 		amp.InputOhm, amp.NoiseUV = s.AmpOhm, s.AmpNoiseUV
 	}
+	auto := s.AntennaTap == 0 && s.DetectorTap == 0
+	na, nd := s.AntennaTap, s.DetectorTap
+	if auto {
+		na, nd = 1, 1
+	}
 	r := Rig{
-		Antenna: ant, Tank: TunedCircuit{InductanceUH: s.TankUH, QUnloaded: 100, AntennaTap: 1, DetectorTap: 1},
-		TankCoil: &tank, AutoTaps: true, LoadingFormMm: s.LoadingFormMm, LoadingAWG: s.LoadingAWG,
+		Antenna: ant, Tank: TunedCircuit{InductanceUH: s.TankUH, QUnloaded: 100, AntennaTap: na, DetectorTap: nd},
+		TankCoil: &tank, AutoTaps: auto, LoadingFormMm: s.LoadingFormMm, LoadingAWG: s.LoadingAWG,
 		CapMinPF: s.CapMinPF, CapMaxPF: s.CapMaxPF, StrayPF: s.StrayPF,
 		Diode: d, Phones: ph, Amp: amp, Noise: nz, Modulation: s.Modulation,
 	}

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"strconv"
 	"strings"
 	"text/tabwriter"
 
@@ -31,6 +32,16 @@ func rigFlags(fs *flag.FlagSet) *receiver.RigSpec {
 	fs.Float64Var(&s.HeightM, "height-m", s.HeightM, "height of the wire, m (0.5–300)")
 	fs.Float64Var(&s.DownleadM, "downlead-m", s.DownleadM, "down-lead length, m (0.5 … 2×height)")
 	fs.Float64Var(&s.WireMm, "wire-mm", s.WireMm, "wire diameter, mm (0.1–10)")
+	fs.Func("wire-awg", "wire gauge, AWG (0–40), instead of --wire-mm", func(v string) error {
+		n, err := strconv.Atoi(v)
+		if err != nil {
+			return fmt.Errorf("want a whole gauge from 0 to 40")
+		}
+		s.WireMm, s.WireAWG = 0, n
+		return nil
+	})
+	fs.Float64Var(&s.AntennaTap, "antenna-tap", 0, "antenna tap, fraction of the tank winding (0 = best for weak signals)")
+	fs.Float64Var(&s.DetectorTap, "detector-tap", 0, "detector tap, fraction of the tank winding (0 = best for weak signals)")
 	fs.StringVar(&s.GroundSystem, "ground-system", s.GroundSystem, "ground: "+groundSystemNames())
 	fs.Float64Var(&s.GroundOhm, "ground-ohm", 0, "measured ground loss instead of --ground-system, Ω")
 	fs.Float64Var(&s.TankUH, "tank-uh", s.TankUH, "tuned-circuit coil, µH")
@@ -107,34 +118,47 @@ var rigFlagNames = map[string]string{
 	"ground loss": "--ground-ohm", "frequency": "--khz", "field": "--field-dbuvm", "amplifier gain": "--amp-db",
 	"amplifier input resistance": "--amp-ohm", "amplifier noise": "--amp-noise-uv", "modulation": "--modulation",
 	"inductance": "--tank-uh", "tank inductance": "--tank-uh", "antenna kind": "--antenna",
+	"AWG": "--wire-awg", "antenna tap": "--antenna-tap", "detector tap": "--detector-tap",
 }
+
+// selJSON is one point of the selectivity curve.
+type selJSON struct {
+	OffsetKHz float64 `json:"offset_khz"`
+	DB        float64 `json:"db"`
+}
+
+// selectivityOffsetsKHz are the offsets of the printed selectivity curve:
+// one and two channels of either raster, and further out.
+var selectivityOffsetsKHz = []float64{-100, -50, -20, -18, -10, -9, 9, 10, 18, 20, 50, 100}
 
 // rigJSON is the --json output of "earshot rig".
 type rigJSON struct {
-	KHz             float64  `json:"khz"`
-	HeffM           float64  `json:"h_eff_m"`
-	RradOhm         float64  `json:"r_rad_ohm"`
-	RlossOhm        float64  `json:"r_loss_ohm"`
-	XOhm            float64  `json:"x_ohm"`
-	LoadingUH       float64  `json:"loading_uh"`
-	LoadingTurns    float64  `json:"loading_turns"`
-	SeriesPF        float64  `json:"series_pf"`
-	TankQ           float64  `json:"tank_q"`
-	TuningPF        float64  `json:"tuning_pf"`
-	Tunable         bool     `json:"tunable"`
-	AntennaTap      float64  `json:"antenna_tap"`
-	DetectorTap     float64  `json:"detector_tap"`
-	LoadedQ         float64  `json:"loaded_q"`
-	BandwidthKHz    float64  `json:"bandwidth_khz"`
-	MinAudibleDBuVm *float64 `json:"min_audible_dbuvm"`
-	FieldDBuVm      *float64 `json:"field_dbuvm,omitempty"`
-	VocUV           *float64 `json:"voc_uv,omitempty"`
-	DetectorMV      *float64 `json:"detector_mv,omitempty"`
-	AudioMV         *float64 `json:"audio_mv,omitempty"`
-	SPL             *float64 `json:"spl_db,omitempty"`
-	MarginDB        *float64 `json:"margin_db,omitempty"`
-	SNRDB           *float64 `json:"snr_db,omitempty"`
-	Audible         *bool    `json:"audible,omitempty"`
+	KHz             float64   `json:"khz"`
+	HeffM           float64   `json:"h_eff_m"`
+	RradOhm         float64   `json:"r_rad_ohm"`
+	RlossOhm        float64   `json:"r_loss_ohm"`
+	XOhm            float64   `json:"x_ohm"`
+	LoadingUH       float64   `json:"loading_uh"`
+	LoadingTurns    float64   `json:"loading_turns"`
+	SeriesPF        float64   `json:"series_pf"`
+	TankQ           float64   `json:"tank_q"`
+	TuningPF        float64   `json:"tuning_pf"`
+	Tunable         bool      `json:"tunable"`
+	AntennaTap      float64   `json:"antenna_tap"`
+	DetectorTap     float64   `json:"detector_tap"`
+	LoadedQ         float64   `json:"loaded_q"`
+	BandwidthKHz    float64   `json:"bandwidth_khz"`
+	Selectivity     []selJSON `json:"selectivity"`
+	TransformerTo   float64   `json:"phones_transformer_ratio,omitempty"`
+	MinAudibleDBuVm *float64  `json:"min_audible_dbuvm"`
+	FieldDBuVm      *float64  `json:"field_dbuvm,omitempty"`
+	VocUV           *float64  `json:"voc_uv,omitempty"`
+	DetectorMV      *float64  `json:"detector_mv,omitempty"`
+	AudioMV         *float64  `json:"audio_mv,omitempty"`
+	SPL             *float64  `json:"spl_db,omitempty"`
+	MarginDB        *float64  `json:"margin_db,omitempty"`
+	SNRDB           *float64  `json:"snr_db,omitempty"`
+	Audible         *bool     `json:"audible,omitempty"`
 }
 
 func runRig(args []string, stdout, stderr io.Writer) int {
@@ -174,7 +198,12 @@ func runRig(args []string, stdout, stderr io.Writer) int {
 		XOhm: round4(rc.XOhm), LoadingUH: round4(rc.LoadingUH), LoadingTurns: math.Round(rc.LoadingTurns*10) / 10,
 		SeriesPF: round4(rc.SeriesPF), TankQ: round4(rc.TankQ), TuningPF: round4(rc.Tank.TuningPF), Tunable: rc.Tunable,
 		AntennaTap: round4(rc.AntennaTap), DetectorTap: round4(rc.DetectorTap), LoadedQ: round4(rc.Tank.LoadedQ),
-		BandwidthKHz: round4(rc.Tank.BandwidthKHz)}
+		BandwidthKHz: round4(rc.Tank.BandwidthKHz), TransformerTo: round4(rig.Phones.TransformerRatio)}
+	for _, off := range selectivityOffsetsKHz {
+		if g := *khz + off; g > 0 {
+			out.Selectivity = append(out.Selectivity, selJSON{off, math.Round(rc.SelectivityDB(propagation.KHz(g))*100) / 100})
+		}
+	}
 	if m, err := rig.MinAudibleDBuVm(f); err == nil {
 		m = math.Round(m*100) / 100
 		out.MinAudibleDBuVm = &m
@@ -197,7 +226,7 @@ func runRig(args []string, stdout, stderr io.Writer) int {
 }
 
 func printRig(w io.Writer, s *receiver.RigSpec, rig receiver.Rig, rc receiver.Reception, out rigJSON, withField bool) {
-	fmt.Fprintf(w, "Receiving chain at %g kHz: %s, %g m wire %g m up, %g m down-lead, %g mm; ground %s (%.0f Ω)\n",
+	fmt.Fprintf(w, "Receiving chain at %g kHz: %s, %g m wire %g m up, %g m down-lead, %.2f mm; ground %s (%.0f Ω)\n",
 		out.KHz, s.Kind, s.WireM, s.HeightM, rig.Antenna.DownleadM, rig.Antenna.WireDiameterMm, rig.Antenna.Ground.Name, rig.Antenna.Ground.LossOhm)
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	row := func(stage, what, val, unit string) { fmt.Fprintf(tw, "  %s\t%s\t%s\t%s\n", stage, what, val, unit) }
@@ -223,7 +252,17 @@ func printRig(w io.Writer, s *receiver.RigSpec, rig receiver.Rig, rc receiver.Re
 	row("", "antenna tap / detector tap", fmt.Sprintf("%.3f / %.3f", rc.AntennaTap, rc.DetectorTap), "of the winding")
 	row("", "loaded Q", fmt.Sprintf("%.1f", rc.Tank.LoadedQ), "")
 	row("", "bandwidth (−3 dB)", f2(rc.Tank.BandwidthKHz), "kHz")
+	var sel []string
+	for _, p := range out.Selectivity {
+		if p.OffsetKHz > 0 {
+			sel = append(sel, fmt.Sprintf("%+g kHz %.1f", p.OffsetKHz, p.DB))
+		}
+	}
+	row("", "selectivity (dB at offset)", strings.Join(sel, ", "), "dB")
 	row("detector", fmt.Sprintf("%s, weak-signal input resistance", rig.Diode.Name), fmt.Sprintf("%.0f", rc.DetectorWeakOhm), "Ω")
+	if rig.Phones.TransformerRatio > 0 {
+		row("phones", fmt.Sprintf("audio transformer for %s", rig.Phones.Name), fmt.Sprintf("%.1f:1", rig.Phones.TransformerRatio), "turns ratio")
+	}
 	if withField {
 		row("signal", "field", f2(rc.FieldDBuVm), "dB(µV/m)")
 		row("", "open-circuit antenna voltage", f2(rc.VocUV), "µV rms")

@@ -68,6 +68,8 @@ func TestRun(t *testing.T) {
 		{"rig bad phones", []string{"rig", "--khz", "1000", "--phones", "earbuds"}, 2, "", `--phones: unknown phones "earbuds"`},
 		{"rig bad field", []string{"rig", "--khz", "1000", "--field-dbuvm", "NaN"}, 2, "", `--field-dbuvm must be between`},
 		{"coil", []string{"coil", "--form-mm", "25", "--awg", "24", "--turns", "200"}, 0, `(?s)inductance:\s+2\d\d\.\d\d µH.*Q`, ""},
+		{"coil tuning", []string{"coil", "--form-mm", "60", "--awg", "24", "--uh", "240", "--cap-min-pf", "10", "--cap-max-pf", "365"}, 0, `tunes:.*covers 530–1700 kHz`, ""},
+		{"coil tuning short", []string{"coil", "--form-mm", "60", "--awg", "24", "--uh", "150", "--cap-min-pf", "10", "--cap-max-pf", "365"}, 0, `does not cover`, ""},
 		{"coil both", []string{"coil", "--form-mm", "25", "--awg", "24", "--turns", "200", "--uh", "100"}, 2, "", `exactly one of --turns and --uh`},
 		{"coil bad awg", []string{"coil", "--form-mm", "25", "--awg", "60", "--turns", "3"}, 2, "", `--awg must be`},
 		{"coil bad form", []string{"coil", "--form-mm", "0", "--awg", "24", "--turns", "3"}, 2, "", `--form-mm must be`},
@@ -128,7 +130,7 @@ func TestJSONGolden(t *testing.T) {
 		{"skywave_at.json", []string{"skywave", "--from", "51.5,-0.1", "--to", "40.4,-3.7", "--khz", "999", "--kw", "100", "--at", "2025-01-15T22:00:00Z", "--json"},
 			[]string{"at", "decile_dbuvm", "e_dbuvm", "gain_db", "geomag_lat_deg", "hourly_loss_db", "hours_after_sunset", "k_r", "khz", "km", "kw", "median_dbuvm", "pol_loss_db", "sea_gain_db", "slant_km", "solar_loss_db", "sun_elev_mid_deg", "takeoff_deg", "vertical_wire_corr_db"}},
 		{"rig.json", []string{"rig", "--khz", "600", "--json"},
-			[]string{"antenna_tap", "bandwidth_khz", "detector_tap", "h_eff_m", "khz", "loaded_q", "loading_turns", "loading_uh", "min_audible_dbuvm", "r_loss_ohm", "r_rad_ohm", "series_pf", "tank_q", "tunable", "tuning_pf", "x_ohm"}},
+			[]string{"antenna_tap", "bandwidth_khz", "detector_tap", "h_eff_m", "khz", "loaded_q", "loading_turns", "loading_uh", "min_audible_dbuvm", "r_loss_ohm", "r_rad_ohm", "selectivity", "series_pf", "tank_q", "tunable", "tuning_pf", "x_ohm"}},
 		{"coil.json", []string{"coil", "--form-mm", "25", "--awg", "24", "--uh", "200", "--json"},
 			[]string{"awg", "form_mm", "inductance_uh", "khz", "length_mm", "q", "resistance_ohm", "turns"}},
 		{"sun.json", []string{"sun", "--at", "2024-06-21T12:00:00Z", "--lat", "51.4769", "--lon", "0", "--json"},
@@ -161,6 +163,38 @@ func TestJSONGolden(t *testing.T) {
 		}
 		if !bytes.Equal(stdout.Bytes(), want) {
 			t.Errorf("run(%q) =\n%s\nwant (%s)\n%s", c.args, stdout.String(), golden, want)
+		}
+	}
+}
+
+// TestRigFactsInCLI: the facts of the trade hold in "earshot rig" for a
+// 40 m wire at 8–12 m (common practice, the receiving-chain issue): about
+// 200 µH and about 200 turns of AWG 24 on a 25 mm form at 600 kHz, no
+// loading coil at 1600 kHz.
+func TestRigFactsInCLI(t *testing.T) {
+	for _, h := range []string{"8", "10", "12"} {
+		for _, c := range []struct {
+			khz    string
+			lo, hi float64
+		}{{"600", 150, 260}, {"1600", -1e9, 0}} {
+			var stdout, stderr bytes.Buffer
+			args := []string{"rig", "--wire-m", "40", "--height-m", h, "--downlead-m", h, "--khz", c.khz, "--json"}
+			if status := run(args, &stdout, &stderr); status != 0 {
+				t.Fatalf("run(%q) = %d: %s", args, status, stderr.String())
+			}
+			var out struct {
+				LoadingUH    float64 `json:"loading_uh"`
+				LoadingTurns float64 `json:"loading_turns"`
+			}
+			if err := json.Unmarshal(stdout.Bytes(), &out); err != nil {
+				t.Fatal(err)
+			}
+			if out.LoadingUH < c.lo || out.LoadingUH > c.hi {
+				t.Errorf("height %s m, %s kHz: loading %.1f µH, want %g…%g", h, c.khz, out.LoadingUH, c.lo, c.hi)
+			}
+			if c.khz == "600" && (out.LoadingTurns < 150 || out.LoadingTurns > 260) {
+				t.Errorf("height %s m, 600 kHz: %.0f turns, want about 200", h, out.LoadingTurns)
+			}
 		}
 	}
 }
