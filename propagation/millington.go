@@ -134,34 +134,30 @@ func (t Transmitter) sourceDB() float64 { return 10*math.Log10(t.PowerKW) + t.Ga
 // Millington's method for mixed paths, plus warnings for inputs outside the
 // validated range.
 func (cc *CurveCache) PathFieldDBuVm(tx Transmitter, p Path) (float64, []Warning, error) {
-	warn, err := tx.Validate()
-	if err != nil {
-		return 0, nil, err
-	}
-	pw, err := p.Validate()
-	if err != nil {
-		return 0, nil, err
-	}
-	warn = append(warn, pw...)
-	curves := make([]FieldCurve, len(p))
-	for i, s := range p {
-		c, err := cc.Curve(tx.Freq, s.Ground)
-		if err != nil {
-			return 0, nil, err
-		}
-		curves[i] = c
-	}
-	e := MillingtonDBuVm(p, curves) + tx.sourceDB()
-	if math.IsNaN(e) || math.IsInf(e, 0) {
-		return 0, nil, fmt.Errorf("propagation: ground-wave field is not finite for %g kHz over a %g km path", float64(tx.Freq), p.LengthKm())
-	}
-	return e, warn, nil
+	return pathField(tx, p, func(g Ground) (FieldCurve, error) { return cc.Curve(tx.Freq, g) })
 }
 
 // DirectPathFieldDBuVm is PathFieldDBuVm without the cache: it computes the
 // residue-series modes of every ground afresh. It is the reference the
 // cache is tested against, and costs milliseconds.
 func DirectPathFieldDBuVm(tx Transmitter, p Path) (float64, []Warning, error) {
+	models := make(map[Ground]*Homogeneous)
+	return pathField(tx, p, func(g Ground) (FieldCurve, error) {
+		if h, ok := models[g]; ok {
+			return h, nil
+		}
+		h, _, err := NewHomogeneous(tx.Freq, g)
+		if err != nil {
+			return nil, err
+		}
+		models[g] = h
+		return h, nil
+	})
+}
+
+// pathField validates tx and p, gets each segment's curve from curveFor
+// and applies Millington's method and the source term.
+func pathField(tx Transmitter, p Path, curveFor func(Ground) (FieldCurve, error)) (float64, []Warning, error) {
 	warn, err := tx.Validate()
 	if err != nil {
 		return 0, nil, err
@@ -171,18 +167,11 @@ func DirectPathFieldDBuVm(tx Transmitter, p Path) (float64, []Warning, error) {
 		return 0, nil, err
 	}
 	warn = append(warn, pw...)
-	models := make(map[Ground]*Homogeneous)
 	curves := make([]FieldCurve, len(p))
 	for i, s := range p {
-		h, ok := models[s.Ground]
-		if !ok {
-			h, _, err = NewHomogeneous(tx.Freq, s.Ground)
-			if err != nil {
-				return 0, nil, err
-			}
-			models[s.Ground] = h
+		if curves[i], err = curveFor(s.Ground); err != nil {
+			return 0, nil, err
 		}
-		curves[i] = h
 	}
 	e := MillingtonDBuVm(p, curves) + tx.sourceDB()
 	if math.IsNaN(e) || math.IsInf(e, 0) {

@@ -1,10 +1,7 @@
 package receiver
 
 import (
-	"fmt"
 	"math"
-	"sort"
-	"strings"
 )
 
 // NoiseEnv is a man-made noise environment of Rec. ITU-R P.372: the median
@@ -32,15 +29,7 @@ func NoiseEnvs() []NoiseEnv { return append([]NoiseEnv(nil), noiseEnvs...) }
 
 // NoiseEnvByName returns the environment with that name.
 func NoiseEnvByName(name string) (NoiseEnv, error) {
-	var names []string
-	for _, n := range noiseEnvs {
-		if strings.EqualFold(n.Name, name) {
-			return n, nil
-		}
-		names = append(names, n.Name)
-	}
-	sort.Strings(names)
-	return NoiseEnv{}, fmt.Errorf("receiver: unknown noise environment %q (known: %s)", name, strings.Join(names, ", "))
+	return byName("noise environment", name, noiseEnvs, func(n NoiseEnv) string { return n.Name })
 }
 
 // NoiseFigureDB returns the median external noise figure F_am (dB above

@@ -1,10 +1,7 @@
 package receiver
 
 import (
-	"fmt"
 	"math"
-	"sort"
-	"strings"
 )
 
 // Phones describe the listener's earphones as an audio load with a
@@ -73,15 +70,7 @@ func PhonesPresets() []Phones { return append([]Phones(nil), phonePresets...) }
 
 // PhonesByName returns the preset with that name.
 func PhonesByName(name string) (Phones, error) {
-	var names []string
-	for _, p := range phonePresets {
-		if strings.EqualFold(p.Name, name) {
-			return p, nil
-		}
-		names = append(names, p.Name)
-	}
-	sort.Strings(names)
-	return Phones{}, fmt.Errorf("receiver: unknown phones %q (known: %s)", name, strings.Join(names, ", "))
+	return byName("phones", name, phonePresets, func(p Phones) string { return p.Name })
 }
 
 // Validate checks the phones.

@@ -36,7 +36,7 @@ type RigSpec struct {
 	// AntennaTap and DetectorTap fix the taps (fractions of the tank
 	// winding); 0 chooses them for weak signals (BestTaps).
 	AntennaTap, DetectorTap float64
-	Modulation float64 // AM depth, 0–1 (0: DefaultModulation)
+	Modulation              float64 // AM depth, 0–1 (0: DefaultModulation)
 }
 
 // DefaultRigSpec is a typical outdoor crystal set: 40 m of 1.6 mm wire

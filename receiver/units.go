@@ -1,7 +1,10 @@
 package receiver
 
 import (
+	"fmt"
 	"math"
+	"sort"
+	"strings"
 
 	"earshot/propagation"
 )
@@ -34,3 +37,18 @@ func finite(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 
 // omega returns the angular frequency 2πf in rad/s.
 func omega(f KHz) float64 { return 2 * math.Pi * f.Hz() }
+
+// byName returns the item whose name (nameOf) equals name, ignoring case,
+// or an error listing the known names of that kind.
+func byName[T any](kind, name string, items []T, nameOf func(T) string) (T, error) {
+	var names []string
+	for _, it := range items {
+		if strings.EqualFold(nameOf(it), name) {
+			return it, nil
+		}
+		names = append(names, nameOf(it))
+	}
+	sort.Strings(names)
+	var zero T
+	return zero, fmt.Errorf("receiver: unknown %s %q (known: %s)", kind, name, strings.Join(names, ", "))
+}

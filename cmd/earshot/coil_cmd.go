@@ -1,8 +1,6 @@
 package main
 
 import (
-	"encoding/json"
-	"flag"
 	"fmt"
 	"io"
 	"math"
@@ -49,8 +47,7 @@ func runCoil(args []string, stdout, stderr io.Writer) int {
 	if done, status := parseFlags(fs, args, stderr); done {
 		return status
 	}
-	set := map[string]bool{}
-	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	set := setFlags(fs)
 	names := map[string]string{"minimum capacitance": "--cap-min-pf", "maximum capacitance": "--cap-max-pf", "stray capacitance": "--stray-pf", "form diameter": "--form-mm", "AWG": "--awg", "turns": "--turns", "pitch": "--pitch-mm", "inductance": "--uh"}
 	switch {
 	case !set["form-mm"] || !set["awg"]:
@@ -87,10 +84,7 @@ func runCoil(args []string, stdout, stderr io.Writer) int {
 		out.TuneMinKHz, out.TuneMaxKHz, out.CoversBand = round4(float64(tr.MinKHz)), round4(float64(tr.MaxKHz)), &covers
 	}
 	if *asJSON {
-		if err := json.NewEncoder(stdout).Encode(out); err != nil {
-			return report("coil", err, stderr)
-		}
-		return exitOK
+		return emitJSON("coil", out, stdout, stderr)
 	}
 	fmt.Fprintf(stdout, "Coil: %.2f turns of AWG %d enamelled on a %g mm form\n", out.Turns, out.AWG, out.FormMm)
 	fmt.Fprintf(stdout, "  inductance:      %.2f µH\n", out.InductanceUH)

@@ -1,9 +1,7 @@
 package main
 
 import (
-	"encoding/json"
 	"errors"
-	"flag"
 	"fmt"
 	"io"
 	"math"
@@ -84,8 +82,7 @@ func runGroundwave(args []string, stdout, stderr io.Writer) int {
 	if done, status := parseFlags(fs, args, stderr); done {
 		return status
 	}
-	set := map[string]bool{}
-	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	set := setFlags(fs)
 
 	out, warns, err := groundwave(set, *khz, *sigma, *epsr, *ground, *kmList, *pathSpec, *kw, *heightDeg)
 	if err != nil {
@@ -95,11 +92,7 @@ func runGroundwave(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "earshot groundwave: warning: %s\n", w)
 	}
 	if *asJSON {
-		enc := json.NewEncoder(stdout)
-		if err := enc.Encode(out); err != nil {
-			return report("groundwave", err, stderr)
-		}
-		return exitOK
+		return emitJSON("groundwave", out, stdout, stderr)
 	}
 	printGroundwaveTable(stdout, out, *ground, *pathSpec)
 	return exitOK

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"encoding/json"
 	"flag"
 	"fmt"
 	"io"
@@ -170,8 +169,7 @@ func runRig(args []string, stdout, stderr io.Writer) int {
 	if done, status := parseFlags(fs, args, stderr); done {
 		return status
 	}
-	set := map[string]bool{}
-	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	set := setFlags(fs)
 	if !set["khz"] {
 		return report("rig", usagef("--khz is required (kHz)"), stderr)
 	}
@@ -216,10 +214,7 @@ func runRig(args []string, stdout, stderr io.Writer) int {
 		out.SPL, out.MarginDB, out.SNRDB, out.Audible = v(rc.SPL), v(rc.MarginDB), v(rc.SNRDB), &rc.Audible
 	}
 	if *asJSON {
-		if err := json.NewEncoder(stdout).Encode(out); err != nil {
-			return report("rig", err, stderr)
-		}
-		return exitOK
+		return emitJSON("rig", out, stdout, stderr)
 	}
 	printRig(stdout, spec, rig, rc, out, set["field-dbuvm"])
 	return exitOK

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"encoding/json"
 	"errors"
 	"flag"
 	"fmt"
@@ -146,4 +147,19 @@ func trimPkg(err error) string {
 		s = strings.TrimPrefix(s, p)
 	}
 	return s
+}
+
+// setFlags returns the names of the flags given on the command line.
+func setFlags(fs *flag.FlagSet) map[string]bool {
+	set := map[string]bool{}
+	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	return set
+}
+
+// emitJSON writes v as one line of JSON and returns the exit status.
+func emitJSON(name string, v any, stdout, stderr io.Writer) int {
+	if err := json.NewEncoder(stdout).Encode(v); err != nil {
+		return report(name, err, stderr)
+	}
+	return exitOK
 }

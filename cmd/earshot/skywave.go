@@ -1,8 +1,6 @@
 package main
 
 import (
-	"encoding/json"
-	"flag"
 	"fmt"
 	"io"
 	"math"
@@ -60,8 +58,7 @@ func runSkywave(args []string, stdout, stderr io.Writer) int {
 	if done, status := parseFlags(fs, args, stderr); done {
 		return status
 	}
-	set := map[string]bool{}
-	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	set := setFlags(fs)
 	out, warns, err := skywave(set, *from, *to, *khz, *kw, *heightDeg, *at, *sunspots, *coastal)
 	if err != nil {
 		return report("skywave", err, stderr)
@@ -70,10 +67,7 @@ func runSkywave(args []string, stdout, stderr io.Writer) int {
 		fmt.Fprintf(stderr, "earshot skywave: warning: %s\n", w)
 	}
 	if *asJSON {
-		if err := json.NewEncoder(stdout).Encode(out); err != nil {
-			return report("skywave", err, stderr)
-		}
-		return exitOK
+		return emitJSON("skywave", out, stdout, stderr)
 	}
 	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', 0)
 	fmt.Fprintf(tw, "Night sky wave, %g kHz, %g kW, %s → %s\n", out.KHz, out.KW, *from, *to)

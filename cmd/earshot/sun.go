@@ -1,8 +1,6 @@
 package main
 
 import (
-	"encoding/json"
-	"flag"
 	"fmt"
 	"io"
 	"time"
@@ -38,8 +36,7 @@ func runSun(args []string, stdout, stderr io.Writer) int {
 	if done, status := parseFlags(fs, args, stderr); done {
 		return status
 	}
-	set := map[string]bool{}
-	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	set := setFlags(fs)
 	if !set["lat"] || !set["lon"] {
 		return report("sun", usagef("--lat and --lon are required (degrees)"), stderr)
 	}
@@ -67,10 +64,7 @@ func runSun(args []string, stdout, stderr io.Writer) int {
 		SolarNoon: rfc(day.SolarNoon), Sunrise: rfc(day.Sunrise), Sunset: rfc(day.Sunset),
 		ElevationAt: rfc(when), ElevationDeg: round4(elev)}
 	if *asJSON {
-		if err := json.NewEncoder(stdout).Encode(out); err != nil {
-			return report("sun", err, stderr)
-		}
-		return exitOK
+		return emitJSON("sun", out, stdout, stderr)
 	}
 	fmt.Fprintf(stdout, "Sun at %.4f°, %.4f° on %s (times UTC)\n", *lat, *lon, out.Date)
 	fmt.Fprintf(stdout, "  day:        %s\n", out.State)

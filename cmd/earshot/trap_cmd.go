@@ -1,8 +1,6 @@
 package main
 
 import (
-	"encoding/json"
-	"flag"
 	"fmt"
 	"io"
 
@@ -51,8 +49,7 @@ func runTrap(args []string, stdout, stderr io.Writer) int {
 	if done, status := parseFlags(fs, args, stderr); done {
 		return status
 	}
-	set := map[string]bool{}
-	fs.Visit(func(f *flag.Flag) { set[f.Name] = true })
+	set := setFlags(fs)
 	switch {
 	case !set["khz"] || !set["wanted-khz"]:
 		return report("trap", usagef("--khz and --wanted-khz are required (kHz)"), stderr)
@@ -105,10 +102,7 @@ func runTrap(args []string, stdout, stderr io.Writer) int {
 		CapacitancPF: round4(adv.Trap.CapacitancePF), Q: adv.Trap.QUnloaded, NeedDB: round4(m.ShortDB + 6),
 		NotchDB: round4(adv.NotchDB), WantedLossDB: round4(adv.WantedLossDB), Fixes: adv.Fixes, Reason: adv.Reason}
 	if *asJSON {
-		if err := json.NewEncoder(stdout).Encode(out); err != nil {
-			return report("trap", err, stderr)
-		}
-		return exitOK
+		return emitJSON("trap", out, stdout, stderr)
 	}
 	fmt.Fprintf(stdout, "Wave trap (%s) against %g kHz, listening on %g kHz\n", out.Kind, out.KHz, out.WantedKHz)
 	fmt.Fprintf(stdout, "  parts:            %.1f µH with %.1f pF, coil Q %g\n", out.InductanceUH, out.CapacitancPF, out.Q)
