@@ -42,6 +42,9 @@ type Rig struct {
 	Tank     TunedCircuit
 	TankCoil *Coil
 	AutoTaps bool
+	// AutoDetectorTap chooses only the detector tap, matched to the tank
+	// as the given antenna tap (or loose coupling) loads it.
+	AutoDetectorTap bool
 	// The tank's variable capacitor (pF), for the tuning-range check; all
 	// zero means unchecked.
 	CapMinPF, CapMaxPF, StrayPF float64
@@ -64,6 +67,9 @@ func (r Rig) Validate() error {
 	tc := r.Tank
 	if r.AutoTaps {
 		tc.AntennaTap, tc.DetectorTap = 1, 1
+	}
+	if r.AutoDetectorTap {
+		tc.DetectorTap = 1
 	}
 	if r.TankCoil != nil {
 		if err := r.TankCoil.Validate(); err != nil {
@@ -175,8 +181,12 @@ func (r Rig) front(f KHz) (Front, error) {
 		}
 		fr.Tunable = tr.Covers(f, f)
 	}
-	if r.AutoTaps {
+	switch {
+	case r.AutoTaps:
 		tc.AntennaTap, tc.DetectorTap = BestTaps(f, tc.InductanceUH, tc.QUnloaded, fr.SourceOhm, det)
+	case r.AutoDetectorTap:
+		rp := tc.QUnloaded * omega(f) * tc.InductanceUH * 1e-6
+		tc.DetectorTap = math.Min(1, math.Sqrt(det/par(rp, fr.SourceOhm/(tc.AntennaTap*tc.AntennaTap))))
 	}
 	fr.AntennaTap, fr.DetectorTap = tc.AntennaTap, tc.DetectorTap
 	fr.Tank = tc.Solve(f, fr.SourceOhm, det)

@@ -122,3 +122,37 @@ func TestBestTaps(t *testing.T) {
 		t.Errorf("tighter antenna tap: power %.3g (best %.3g), Q %.1f (best %.1f)", tight, best, qTight, q)
 	}
 }
+
+// TestLooseCoupling: a primary coupled with coefficient k transforms like
+// a tap of k·√(L₁/L₂) (reflected resistance (ωM)²/R with M = k√(L₁L₂);
+// Terman, Radio Engineers' Handbook, coupled circuits, from memory): the
+// reflected resistance across the tank computed from (ωM)² equals the tap
+// formula's R_s/n².
+func TestLooseCoupling(t *testing.T) {
+	f := KHz(1000)
+	w := omega(f)
+	for _, c := range []struct{ k, l1, l2, rs float64 }{{0.3, 30, 240, 200}, {1, 60, 240, 50}, {0.05, 200, 240, 20}} {
+		n := LooseCouplingTap(c.k, c.l1, c.l2)
+		m := c.k * math.Sqrt(c.l1*c.l2) * 1e-6
+		x2 := w * c.l2 * 1e-6
+		// Series resistance reflected into the tank coil, then its parallel
+		// equivalent across the tank: R' = X₂² / ((ωM)²/R_s).
+		rPar := x2 * x2 / ((w * m) * (w * m) / c.rs)
+		if want := c.rs / (n * n); math.Abs(rPar-want) > 1e-9*want {
+			t.Errorf("k %g, L1 %g, L2 %g: reflected %.6g Ω, tap model %.6g Ω", c.k, c.l1, c.l2, rPar, want)
+		}
+	}
+	s := DefaultRigSpec()
+	s.CouplingK, s.PrimaryUH = 0.3, 30
+	r, err := s.Build()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got, want := r.Tank.AntennaTap, 0.3*math.Sqrt(30/s.TankUH); math.Abs(got-want) > 1e-12 || r.AutoTaps || !r.AutoDetectorTap {
+		t.Errorf("loosely coupled rig: antenna tap %g (want %g), auto %v/%v", got, want, r.AutoTaps, r.AutoDetectorTap)
+	}
+	s.CouplingK = 1.5
+	if _, err := s.Build(); err == nil {
+		t.Errorf("coupling 1.5: no error")
+	}
+}

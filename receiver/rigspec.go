@@ -2,6 +2,7 @@ package receiver
 
 import (
 	"fmt"
+	"math"
 )
 
 // RigSpec is a rig described in the listener's own terms, as the command
@@ -36,7 +37,10 @@ type RigSpec struct {
 	// AntennaTap and DetectorTap fix the taps (fractions of the tank
 	// winding); 0 chooses them for weak signals (BestTaps).
 	AntennaTap, DetectorTap float64
-	Modulation              float64 // AM depth, 0–1 (0: DefaultModulation)
+	// CouplingK and PrimaryUH describe a loosely coupled antenna coil
+	// (coefficient k, primary inductance) instead of an antenna tap.
+	CouplingK, PrimaryUH float64
+	Modulation           float64 // AM depth, 0–1 (0: DefaultModulation)
 }
 
 // DefaultRigSpec is a typical outdoor crystal set: 40 m of 1.6 mm wire
@@ -108,14 +112,33 @@ func (s RigSpec) Build() (Rig, error) {
 	if s.AmpDB != 0 {
 		amp.InputOhm, amp.NoiseUV = s.AmpOhm, s.AmpNoiseUV
 	}
-	auto := s.AntennaTap == 0 && s.DetectorTap == 0
 	na, nd := s.AntennaTap, s.DetectorTap
+	if s.CouplingK != 0 {
+		if s.AntennaTap != 0 {
+			return Rig{}, fmt.Errorf("receiver: give an antenna tap or a loose coupling, not both")
+		}
+		if !finite(s.CouplingK) || s.CouplingK <= 0 || s.CouplingK > 1 {
+			return Rig{}, inputErr("coupling coefficient", s.CouplingK, "", "> 0 and <= 1")
+		}
+		if !finite(s.PrimaryUH) || s.PrimaryUH < 1 || s.PrimaryUH > 10000 {
+			return Rig{}, inputErr("primary inductance", s.PrimaryUH, "µH", "between 1 and 10000")
+		}
+		na = math.Min(1, LooseCouplingTap(s.CouplingK, s.PrimaryUH, s.TankUH))
+	}
+	auto := na == 0 && nd == 0
+	autoDet := !auto && nd == 0
 	if auto {
 		na, nd = 1, 1
 	}
+	if autoDet {
+		nd = 1
+	}
+	if na == 0 {
+		return Rig{}, inputErr("antenna tap", 0, "", "> 0 and <= 1 when the detector tap is given")
+	}
 	r := Rig{
 		Antenna: ant, Tank: TunedCircuit{InductanceUH: s.TankUH, QUnloaded: 100, AntennaTap: na, DetectorTap: nd},
-		TankCoil: &tank, AutoTaps: auto, LoadingFormMm: s.LoadingFormMm, LoadingAWG: s.LoadingAWG,
+		TankCoil: &tank, AutoTaps: auto, AutoDetectorTap: autoDet, LoadingFormMm: s.LoadingFormMm, LoadingAWG: s.LoadingAWG,
 		CapMinPF: s.CapMinPF, CapMaxPF: s.CapMaxPF, StrayPF: s.StrayPF,
 		Diode: d, Phones: ph, Amp: amp, Noise: nz, Modulation: s.Modulation,
 	}

@@ -41,6 +41,8 @@ func rigFlags(fs *flag.FlagSet) *receiver.RigSpec {
 	})
 	fs.Float64Var(&s.AntennaTap, "antenna-tap", 0, "antenna tap, fraction of the tank winding (0 = best for weak signals)")
 	fs.Float64Var(&s.DetectorTap, "detector-tap", 0, "detector tap, fraction of the tank winding (0 = best for weak signals)")
+	fs.Float64Var(&s.CouplingK, "coupling-k", 0, "loosely coupled antenna coil: coupling coefficient (0–1) instead of --antenna-tap")
+	fs.Float64Var(&s.PrimaryUH, "primary-uh", 20, "loosely coupled antenna coil: its inductance, µH")
 	fs.StringVar(&s.GroundSystem, "ground-system", s.GroundSystem, "ground: "+groundSystemNames())
 	fs.Float64Var(&s.GroundOhm, "ground-ohm", 0, "measured ground loss instead of --ground-system, Ω")
 	fs.Float64Var(&s.TankUH, "tank-uh", s.TankUH, "tuned-circuit coil, µH")
@@ -118,6 +120,7 @@ var rigFlagNames = map[string]string{
 	"amplifier input resistance": "--amp-ohm", "amplifier noise": "--amp-noise-uv", "modulation": "--modulation",
 	"inductance": "--tank-uh", "tank inductance": "--tank-uh", "antenna kind": "--antenna",
 	"AWG": "--wire-awg", "antenna tap": "--antenna-tap", "detector tap": "--detector-tap",
+	"coupling coefficient": "--coupling-k", "primary inductance": "--primary-uh",
 }
 
 // selJSON is one point of the selectivity curve.
