@@ -48,6 +48,20 @@ func (r Rig) Crowding(wanted Signal, others []Signal) ([]Masking, error) {
 	if err != nil {
 		return nil, err
 	}
+	return fr.Crowding(wanted, others), nil
+}
+
+// Front returns the linear part of the chain at f (antenna, loading,
+// tuned circuit), for callers that evaluate many signals at one tuning.
+func (r Rig) Front(f KHz) (Front, error) {
+	if err := r.Antenna.validateAt(f); err != nil {
+		return Front{}, err
+	}
+	return r.front(f)
+}
+
+// Crowding is Rig.Crowding with the set tuned as fr.
+func (fr Front) Crowding(wanted Signal, others []Signal) []Masking {
 	var out []Masking
 	for _, o := range others {
 		if o.KHz == wanted.KHz && o.Name == wanted.Name {
@@ -62,7 +76,7 @@ func (r Rig) Crowding(wanted Signal, others []Signal) ([]Masking, error) {
 		}
 	}
 	sort.Slice(out, func(i, j int) bool { return out[i].ShortDB > out[j].ShortDB })
-	return out, nil
+	return out
 }
 
 // TrapFor advises a wave trap in the antenna lead against a masking
@@ -77,8 +91,12 @@ func (r Rig) TrapFor(m Masking, kind TrapKind, inductanceUH, capacitancePF, qUnl
 	if err != nil {
 		return TrapAdvice{}, err
 	}
-	tc := r.Tank
-	tc.AntennaTap, tc.DetectorTap = fr.AntennaTap, fr.DetectorTap
+	return fr.TrapFor(m, kind, inductanceUH, capacitancePF, qUnloaded)
+}
+
+// TrapFor is Rig.TrapFor with the set tuned as fr.
+func (fr Front) TrapFor(m Masking, kind TrapKind, inductanceUH, capacitancePF, qUnloaded float64) (TrapAdvice, error) {
+	tc := TunedCircuit{AntennaTap: fr.AntennaTap, DetectorTap: fr.DetectorTap}
 	load := complex(tc.AntennaTap*tc.AntennaTap*par(fr.Tank.DynamicOhm, fr.DetectorWeakOhm/(tc.DetectorTap*tc.DetectorTap)), 0)
 	source := complex(fr.SourceOhm, 0)
 	need := math.Max(m.ShortDB, 0) + 6

@@ -1,0 +1,433 @@
+package plan
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"sync"
+	"time"
+
+	"earshot/propagation"
+	"earshot/receiver"
+)
+
+// Planner predicts reception for one world and one rig. Build it with
+// NewPlanner; it caches ground-wave curves and the rig's response per
+// frequency, so repeated predictions (other spots, other times) are fast.
+// It is safe for concurrent use.
+type Planner struct {
+	world    World
+	spec     receiver.RigSpec
+	rig      receiver.Rig
+	curves   propagation.CurveCache
+	mu       sync.Mutex
+	chains   map[propagation.KHz]*chainTable
+	gainHorz []float64 // per station, G_V at the horizon
+	traps    map[trapKey]*Trap
+}
+
+// trapKey identifies a trap design: the two frequencies and the
+// attenuation needed, rounded up to a whole 2 dB.
+type trapKey struct {
+	wanted, other propagation.KHz
+	needDB        float64
+}
+
+// NewPlanner checks the world and the rig and prepares a planner.
+func NewPlanner(w World, spec receiver.RigSpec) (*Planner, error) {
+	if len(w.Stations) == 0 {
+		return nil, fmt.Errorf("plan: the world has no stations")
+	}
+	if w.Ground == nil {
+		return nil, fmt.Errorf("plan: the world has no ground map")
+	}
+	rig, err := spec.Build()
+	if err != nil {
+		return nil, err
+	}
+	p := &Planner{world: w, spec: spec, rig: rig, chains: map[propagation.KHz]*chainTable{}, traps: map[trapKey]*Trap{}}
+	for i, s := range w.Stations {
+		if _, err := (propagation.Transmitter{Freq: s.KHz, PowerKW: s.KWDay}).Validate(); err != nil {
+			return nil, fmt.Errorf("plan: station %d (%s): %w", i+1, s.ID, err)
+		}
+		if s.KWNight < 0 || math.IsNaN(s.KWNight) {
+			return nil, fmt.Errorf("plan: station %d (%s): night power must be >= 0 kW, got %g", i+1, s.ID, s.KWNight)
+		}
+		g := 0.0
+		if s.HeightDeg != 0 {
+			if g, err = propagation.MonopoleGainDB(s.HeightDeg, 0); err != nil {
+				return nil, fmt.Errorf("plan: station %d (%s): %w", i+1, s.ID, err)
+			}
+		}
+		p.gainHorz = append(p.gainHorz, g)
+	}
+	return p, nil
+}
+
+// Rig returns the planner's rig.
+func (p *Planner) Rig() receiver.Rig { return p.rig }
+
+// Stations returns the planner's stations.
+func (p *Planner) Stations() []Station { return p.world.Stations }
+
+// chainTable is the rig's response at one frequency as a function of the
+// carrier field: margin and S/N on a grid of fields, and the weakest
+// audible field, so that a prediction does not run the detector for every
+// station and spot.
+type chainTable struct {
+	front     receiver.Front
+	minDBuVm  float64 // weakest audible field (+Inf if none)
+	limit     string  // what limits when nothing is audible
+	lo, step  float64
+	marginDB  []float64
+	snrOffset float64 // S/N = E − snrOffset (external noise)
+	ampSNR    []float64
+}
+
+// Field grid of a chain table: −20 … 120 dB(µV/m) every 2.5 dB.
+const (
+	tableLoDBuVm   = -20.0
+	tableHiDBuVm   = 120.0
+	tableStepDBuVm = 2.5
+)
+
+func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
+	p.mu.Lock()
+	ct, ok := p.chains[f]
+	p.mu.Unlock()
+	if ok {
+		return ct, nil
+	}
+	ct = &chainTable{lo: tableLoDBuVm, step: tableStepDBuVm}
+	for e := tableLoDBuVm; e <= tableHiDBuVm+1e-9; e += tableStepDBuVm {
+		rc, err := p.rig.Receive(f, e)
+		if err != nil {
+			break // beyond the detector model's range: the table ends here
+		}
+		if len(ct.marginDB) == 0 {
+			ct.front = rc.Front
+			ct.snrOffset = rc.NoiseDBuVm - 20*math.Log10(p.modulation())
+		}
+		ct.marginDB = append(ct.marginDB, rc.MarginDB)
+		amp := 200.0 // the amplifier's own noise does not limit
+		if ext := e - ct.snrOffset; rc.SNRDB < ext-1e-9 {
+			amp = rc.SNRDB
+		}
+		ct.ampSNR = append(ct.ampSNR, amp)
+	}
+	if len(ct.marginDB) < 2 {
+		return nil, fmt.Errorf("plan: the rig cannot be evaluated at %g kHz", float64(f))
+	}
+	min, err := p.rig.MinAudibleDBuVm(f)
+	if err != nil {
+		ct.minDBuVm, ct.limit = math.Inf(1), "nothing audible"
+		if !ct.front.Tunable {
+			ct.limit = "out of tuning range"
+		}
+	} else {
+		ct.minDBuVm = min
+	}
+	p.mu.Lock()
+	p.chains[f] = ct
+	p.mu.Unlock()
+	return ct, nil
+}
+
+func (p *Planner) modulation() float64 {
+	if p.spec.Modulation > 0 {
+		return p.spec.Modulation
+	}
+	return receiver.DefaultModulation
+}
+
+// interp interpolates a table column at field e, linearly in dB, holding
+// the end values beyond the table.
+func (ct *chainTable) interp(col []float64, e float64) float64 {
+	x := math.Max(0, (e-ct.lo)/ct.step)
+	i := int(x)
+	if i >= len(col)-1 {
+		return col[len(col)-1]
+	}
+	fr := x - float64(i)
+	return col[i]*(1-fr) + col[i+1]*fr
+}
+
+// margin returns the audibility margin at field e: interpolated in the
+// table, extended below it by the square law (2 dB per dB; methods.md §7.2)
+// and above it by linear detection (1 dB per dB).
+func (ct *chainTable) margin(e float64) float64 {
+	hi := ct.lo + float64(len(ct.marginDB)-1)*ct.step
+	switch {
+	case e < ct.lo:
+		return ct.marginDB[0] - 2*(ct.lo-e)
+	case e > hi:
+		return ct.marginDB[len(ct.marginDB)-1] + (e - hi)
+	}
+	return ct.interp(ct.marginDB, e)
+}
+
+// Trap is the wave trap a masked station needs.
+type Trap struct {
+	AgainstID    string
+	Kind         string
+	InductanceUH float64
+	CapacitancPF float64
+	NotchDB      float64
+	WantedLossDB float64
+	Fixes        bool
+	Advice       string
+}
+
+// Heard is one station's prediction at a spot.
+type Heard struct {
+	Station    Station
+	DistKm     float64
+	BearingDeg float64
+	Path       propagation.Path
+	GroundDB   float64  // ground-wave field, dB(µV/m)
+	SkyDB      *float64 // sky-wave median for a wire antenna at that time, nil by day
+	SkyDecile  float64  // decile spread of the sky wave, dB
+	FieldDB    float64  // combined median field
+	Fading     bool     // ground and sky within 6 dB: fading and distortion
+	DetectorDB float64  // field of this station relative to the rig's weakest audible field
+	MarginDB   float64  // audibility margin, dB
+	SNRDB      float64  // audio S/N
+	Chance     float64  // probability (over nights) of being audible at this time
+	Audible    bool
+	MaskedBy   *Station
+	Trap       *Trap
+	Verdict    string
+}
+
+// Prediction is everything heard at a spot at a time.
+type Prediction struct {
+	Spot  Spot
+	At    time.Time
+	Night bool // the sun is down at the spot
+	Heard []Heard
+}
+
+// Audible returns the number of audible stations.
+func (pr Prediction) Audible() int {
+	n := 0
+	for _, h := range pr.Heard {
+		if h.Audible {
+			n++
+		}
+	}
+	return n
+}
+
+// pathStepKm returns the sampling step for a path of distKm: about 50
+// samples, never finer than 1 km nor coarser than 20 km (a coastline is
+// then placed within half a step, which moves a Millington field by a
+// fraction of a dB on paths long enough to need the coarse step).
+func pathStepKm(distKm float64) float64 {
+	return math.Min(20, math.Max(1, distKm/50))
+}
+
+// Predict returns what the rig hears at spot at instant t: every station's
+// ground wave (Millington's method over the ground sampled along the great
+// circle), night sky wave (P.1147 with the hourly loss factor, corrected
+// for a vertical wire), their combination, the chain's audibility margin
+// and S/N, the chance of hearing it over nights, masking by other
+// stations and the trap that would cure it. Results are sorted by margin,
+// best first.
+func (p *Planner) Predict(spot Spot, t time.Time) (Prediction, error) {
+	pr := Prediction{Spot: spot, At: t}
+	elev, err := propagation.SolarElevationDeg(t, spot.Place.LatDeg(), spot.Place.LonDeg())
+	if err != nil {
+		return Prediction{}, err
+	}
+	pr.Night = elev < propagation.RiseSetElevationDeg
+	for i, s := range p.world.Stations {
+		h, err := p.station(i, s, spot, t)
+		if err != nil {
+			return Prediction{}, fmt.Errorf("plan: %s: %w", s.ID, err)
+		}
+		pr.Heard = append(pr.Heard, h)
+	}
+	if err := p.masking(pr.Heard); err != nil {
+		return Prediction{}, err
+	}
+	for i := range pr.Heard {
+		pr.Heard[i].Verdict = verdict(&pr.Heard[i])
+	}
+	sort.SliceStable(pr.Heard, func(i, j int) bool { return pr.Heard[i].MarginDB > pr.Heard[j].MarginDB })
+	return pr, nil
+}
+
+// station predicts one station at the spot.
+func (p *Planner) station(i int, s Station, spot Spot, t time.Time) (Heard, error) {
+	h := Heard{Station: s}
+	h.DistKm = propagation.DistanceKm(s.Place, spot.Place)
+	h.BearingDeg = propagation.InitialBearingDeg(spot.Place, s.Place)
+	dist := math.Max(h.DistKm, 0.05) // listener at the mast: 50 m
+	path, err := p.samplePath(s, spot, dist)
+	if err != nil {
+		return Heard{}, err
+	}
+	h.Path = path
+	// Power: night power when the sun is down at the transmitter.
+	kw := s.KWDay
+	if s.KWNight > 0 {
+		el, err := propagation.SolarElevationDeg(t, s.Place.LatDeg(), s.Place.LonDeg())
+		if err != nil {
+			return Heard{}, err
+		}
+		if el < propagation.RiseSetElevationDeg {
+			kw = s.KWNight
+		}
+	}
+	tx := propagation.Transmitter{Freq: s.KHz, PowerKW: kw, GainDB: p.gainHorz[i]}
+	g, _, err := p.curves.PathFieldDBuVm(tx, path)
+	if err != nil {
+		return Heard{}, err
+	}
+	h.GroundDB = g
+	h.FieldDB = g
+	skyMedian := math.Inf(-1)
+	if h.DistKm >= 1 {
+		sp := propagation.SkyPath{Tx: s.Place, Rx: spot.Place, Freq: s.KHz, PowerKW: kw, HeightDeg: s.HeightDeg}
+		sw, hl, e, err := propagation.SkyWaveAt(sp, t)
+		if err != nil {
+			return Heard{}, err
+		}
+		if hl.LossDB < propagation.DaytimeLossDB {
+			sky := e + sw.ReceiveCorrDB
+			h.SkyDB = &sky
+			h.SkyDecile = sw.DecileSpread
+			skyMedian = sky
+			h.FieldDB = propagation.PowerSumDBuVm(g, sky)
+			h.Fading = propagation.InFadingZone(g, sky)
+		}
+	}
+	ct, err := p.chain(s.KHz)
+	if err != nil {
+		return Heard{}, err
+	}
+	h.DetectorDB = h.FieldDB - ct.minDBuVm
+	h.MarginDB = ct.margin(h.FieldDB)
+	h.SNRDB = math.Min(h.FieldDB-ct.snrOffset, ct.interp(ct.ampSNR, h.FieldDB))
+	h.Audible = h.FieldDB >= ct.minDBuVm
+	h.Chance = propagation.ExceedanceProbability(ct.minDBuVm, g, skyMedian, h.SkyDecile)
+	if math.IsInf(ct.minDBuVm, 1) {
+		h.Chance, h.DetectorDB = 0, math.Inf(-1)
+	}
+	for _, v := range []float64{h.GroundDB, h.FieldDB, h.MarginDB, h.Chance} {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return Heard{}, fmt.Errorf("prediction is not finite (ground %g, field %g, margin %g)", h.GroundDB, h.FieldDB, h.MarginDB)
+		}
+	}
+	return h, nil
+}
+
+// samplePath samples the ground along the great circle from the station
+// to the spot.
+func (p *Planner) samplePath(s Station, spot Spot, dist float64) (propagation.Path, error) {
+	if propagation.DistanceKm(s.Place, spot.Place) < 0.05 {
+		return propagation.Path{{LengthKm: dist, Ground: p.world.Ground(s.Place.LatDeg(), s.Place.LonDeg())}}, nil
+	}
+	return propagation.SamplePath(p.world.Ground, s.Place, spot.Place, pathStepKm(dist))
+}
+
+// masking finds, for each station the listener could hear, the strongest
+// other station that masks it, and the trap that would cure it.
+func (p *Planner) masking(heard []Heard) error {
+	var sigs []receiver.Signal
+	for _, h := range heard {
+		sigs = append(sigs, receiver.Signal{Name: h.Station.ID, KHz: h.Station.KHz, FieldDBuVm: h.FieldDB})
+	}
+	for i := range heard {
+		h := &heard[i]
+		if !h.Audible {
+			continue
+		}
+		var others []receiver.Signal
+		for j, s := range sigs {
+			if j != i {
+				others = append(others, s)
+			}
+		}
+		ct, err := p.chain(h.Station.KHz)
+		if err != nil {
+			return err
+		}
+		ms := ct.front.Crowding(sigs[i], others)
+		if len(ms) == 0 {
+			continue
+		}
+		m := ms[0]
+		for j := range heard {
+			if heard[j].Station.ID == m.Other.Name {
+				h.MaskedBy = &heard[j].Station
+			}
+		}
+		if m.Other.KHz == m.Wanted.KHz {
+			continue // co-channel: no trap can help
+		}
+		h.Trap = p.trap(ct.front, m)
+	}
+	return nil
+}
+
+// trap designs (or recalls) a series-resonant shunt trap with a 500 pF
+// capacitor and a coil of Q 150 — parts a listener can easily get — in the
+// antenna lead against the masking station; nil when no trap can be built.
+func (p *Planner) trap(fr receiver.Front, m receiver.Masking) *Trap {
+	key := trapKey{m.Wanted.KHz, m.Other.KHz, 2 * math.Ceil(m.ShortDB/2)}
+	p.mu.Lock()
+	t, ok := p.traps[key]
+	p.mu.Unlock()
+	if ok {
+		if t == nil {
+			return nil
+		}
+		c := *t
+		c.AgainstID = m.Other.Name
+		return &c
+	}
+	m.ShortDB = key.needDB
+	adv, err := fr.TrapFor(m, receiver.SeriesShuntTrap, 0, 500, 150)
+	if err == nil {
+		t = &Trap{AgainstID: m.Other.Name, Kind: adv.Trap.Kind.String(), InductanceUH: adv.Trap.InductanceUH,
+			CapacitancPF: adv.Trap.CapacitancePF, NotchDB: adv.NotchDB, WantedLossDB: adv.WantedLossDB,
+			Fixes: adv.Fixes, Advice: adv.Reason}
+	}
+	p.mu.Lock()
+	p.traps[key] = t
+	p.mu.Unlock()
+	if t == nil {
+		return nil
+	}
+	c := *t
+	return &c
+}
+
+// verdict puts a prediction in a few plain words.
+func verdict(h *Heard) string {
+	switch {
+	case math.IsInf(h.DetectorDB, -1):
+		return "cannot be tuned with this rig"
+	case !h.Audible && h.Chance >= 0.1:
+		return fmt.Sprintf("below hearing most nights; some nights (%.0f %%)", 100*h.Chance)
+	case !h.Audible:
+		return "too weak to hear"
+	case h.MaskedBy != nil && h.Trap != nil && h.Trap.Fixes:
+		return "swamped by " + h.MaskedBy.ID + ": a wave trap cures it"
+	case h.MaskedBy != nil:
+		return "swamped by " + h.MaskedBy.ID
+	case h.Fading:
+		return "heard, but fading and distorted (ground and sky waves fight)"
+	case h.SkyDB != nil && *h.SkyDB > h.GroundDB:
+		if h.Chance < 0.9 {
+			return fmt.Sprintf("heard by sky wave on %.0f %% of nights", 100*h.Chance)
+		}
+		return "heard by sky wave"
+	case h.MarginDB >= 20:
+		return "loud and clear"
+	case h.MarginDB >= 6:
+		return "clearly heard"
+	}
+	return "faint but heard"
+}
