@@ -204,3 +204,29 @@ func BenchmarkPredict(b *testing.B) {
 		}
 	})
 }
+
+// TestChainTable: the planner's interpolated margin agrees with the full
+// chain (receiver.Rig.Receive) within 0.1 dB across the field range, and
+// its audibility threshold is the rig's MinAudibleDBuVm.
+func TestChainTable(t *testing.T) {
+	p := newPlanner(t, coastWorld([]Station{{ID: "A", KHz: 1000, KWDay: 1, Place: place(t, 45, 10)}}))
+	for _, f := range []propagation.KHz{540, 1000, 1700} {
+		ct, err := p.chain(f)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for e := -10.0; e <= 95; e += 1.3 {
+			rc, err := p.rig.Receive(f, e)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got := ct.margin(e); math.Abs(got-rc.MarginDB) > 0.1 {
+				t.Errorf("%g kHz, %.1f dB(µV/m): table margin %.3f, chain %.3f", float64(f), e, got, rc.MarginDB)
+			}
+		}
+		m, _ := p.rig.MinAudibleDBuVm(f)
+		if ct.minDBuVm != m {
+			t.Errorf("%g kHz: table threshold %g, rig %g", float64(f), ct.minDBuVm, m)
+		}
+	}
+}
