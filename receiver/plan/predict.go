@@ -21,7 +21,7 @@ type Planner struct {
 	world    World
 	spec     receiver.RigSpec
 	rig      receiver.Rig
-	curves   propagation.CurveCache
+	curves   *propagation.CurveCache
 	mu       sync.Mutex
 	chains   map[propagation.KHz]*chainTable
 	gainHorz []float64 // per station, G_V at the horizon
@@ -47,7 +47,7 @@ func NewPlanner(w World, spec receiver.RigSpec) (*Planner, error) {
 	if err != nil {
 		return nil, err
 	}
-	p := &Planner{world: w, spec: spec, rig: rig, chains: map[propagation.KHz]*chainTable{}, traps: map[trapKey]*Trap{}}
+	p := &Planner{world: w, spec: spec, rig: rig, curves: new(propagation.CurveCache), chains: map[propagation.KHz]*chainTable{}, traps: map[trapKey]*Trap{}}
 	for i, s := range w.Stations {
 		if _, err := (propagation.Transmitter{Freq: s.KHz, PowerKW: s.KWDay}).Validate(); err != nil {
 			return nil, fmt.Errorf("plan: station %d (%s): %w", i+1, s.ID, err)

@@ -230,3 +230,74 @@ func TestChainTable(t *testing.T) {
 		}
 	}
 }
+
+// TestMapMatchesPredict: the map's count at a cell equals Predict's count
+// at the cell centre when every cell is computed exactly (Stride 1), and
+// the interpolated map (Stride 4) differs from the exact one in few cells
+// (the interpolation is a speed device; here at most 3 % of cells, each by
+// at most one station).
+func TestMapMatchesPredict(t *testing.T) {
+	rng := rand.New(rand.NewPCG(9, 9))
+	var stations []Station
+	for i := range 8 {
+		stations = append(stations, Station{ID: string(rune('A' + i)), KHz: propagation.KHz(540 + 100*i),
+			KWDay: 1 + rng.Float64()*50, Place: place(t, 44+rng.Float64()*2, 9+rng.Float64()*2)})
+	}
+	p := newPlanner(t, coastWorld(stations))
+	box := BBox{43.5, 46.5, 8.5, 11.5}
+	exact, err := p.Map(box, 24, 24, noon, MapCount, "", MapOptions{Stride: 1}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range [][2]int{{0, 0}, {5, 17}, {12, 12}, {23, 3}} {
+		lat, lon := box.Cell(c[0], c[1], 24, 24)
+		pr, err := p.Predict(Spot{"c", place(t, lat, lon)}, noon)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := exact.Values[c[1]*24+c[0]]; int(got) != pr.Audible() {
+			t.Errorf("cell %v: map count %g, Predict %d", c, got, pr.Audible())
+		}
+	}
+	fast, err := p.Map(box, 24, 24, noon, MapCount, "", MapOptions{Stride: 4}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	diff := 0
+	for i := range fast.Values {
+		if d := math.Abs(fast.Values[i] - exact.Values[i]); d > 0 {
+			diff++
+			if d > 1 {
+				t.Errorf("cell %d: interpolated count %g, exact %g", i, fast.Values[i], exact.Values[i])
+			}
+		}
+	}
+	if diff > len(fast.Values)*3/100 {
+		t.Errorf("%d of %d cells differ between the interpolated and the exact map", diff, len(fast.Values))
+	}
+}
+
+// BenchmarkMap: a 256×256 count map with 30 stations (issue target
+// ≤ 0.5 s native).
+func BenchmarkMap(b *testing.B) {
+	rng := rand.New(rand.NewPCG(3, 5))
+	var stations []Station
+	for i := range 30 {
+		stations = append(stations, Station{ID: string(rune('A' + i)), KHz: propagation.KHz(531 + 9*rng.IntN(130)),
+			KWDay: 1 + rng.Float64()*100, Place: place(b, 43+rng.Float64()*4, 8+rng.Float64()*4)})
+	}
+	p := newPlanner(b, coastWorld(stations))
+	box := BBox{42, 48, 7, 13}
+	at := time.Date(2025, 1, 15, 21, 0, 0, 0, time.UTC)
+	if _, err := p.Map(box, 32, 32, at, MapCount, "", MapOptions{}, nil); err != nil {
+		b.Fatal(err)
+	}
+	b.Run("256x256-30-stations", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			if _, err := p.Map(box, 256, 256, at, MapCount, "", MapOptions{}, nil); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
+}

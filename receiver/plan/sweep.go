@@ -1,0 +1,451 @@
+package plan
+
+import (
+	"fmt"
+	"math"
+	"runtime"
+	"sync"
+	"time"
+
+	"earshot/propagation"
+	"earshot/receiver"
+)
+
+// Progress is told how much of a long job is done (done of total steps).
+// It may be nil. It is called from one goroutine at a time.
+type Progress func(done, total int)
+
+// BBox is a latitude/longitude box in degrees (MinLon < MaxLon; boxes
+// across the antimeridian are not supported).
+type BBox struct{ MinLat, MaxLat, MinLon, MaxLon float64 }
+
+// Validate checks the box.
+func (b BBox) Validate() error {
+	ok := func(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
+	switch {
+	case !ok(b.MinLat) || !ok(b.MaxLat) || b.MinLat < -90 || b.MaxLat > 90 || b.MinLat >= b.MaxLat:
+		return fmt.Errorf("plan: map box latitudes must satisfy -90 <= south < north <= 90, got %g … %g", b.MinLat, b.MaxLat)
+	case !ok(b.MinLon) || !ok(b.MaxLon) || b.MinLon < -180 || b.MaxLon > 180 || b.MinLon >= b.MaxLon:
+		return fmt.Errorf("plan: map box longitudes must satisfy -180 <= west < east <= 180, got %g … %g", b.MinLon, b.MaxLon)
+	}
+	return nil
+}
+
+// Around returns a box centred on the stations and spots given, padded by
+// padDeg degrees and at least minSpanDeg across.
+func Around(places []propagation.Place, padDeg float64) BBox {
+	b := BBox{90, -90, 180, -180}
+	for _, p := range places {
+		b.MinLat, b.MaxLat = math.Min(b.MinLat, p.LatDeg()), math.Max(b.MaxLat, p.LatDeg())
+		b.MinLon, b.MaxLon = math.Min(b.MinLon, p.LonDeg()), math.Max(b.MaxLon, p.LonDeg())
+	}
+	b.MinLat, b.MaxLat = math.Max(-89, b.MinLat-padDeg), math.Min(89, b.MaxLat+padDeg)
+	b.MinLon, b.MaxLon = math.Max(-180, b.MinLon-padDeg), math.Min(180, b.MaxLon+padDeg)
+	return b
+}
+
+// Cell returns the centre of cell (ix, iy) of an nx×ny grid over the box,
+// iy = 0 being the northern row.
+func (b BBox) Cell(ix, iy, nx, ny int) (latDeg, lonDeg float64) {
+	return b.MaxLat - (float64(iy)+0.5)*(b.MaxLat-b.MinLat)/float64(ny),
+		b.MinLon + (float64(ix)+0.5)*(b.MaxLon-b.MinLon)/float64(nx)
+}
+
+// MapKind says what a map shows.
+type MapKind int
+
+const (
+	MapCount   MapKind = iota // number of audible stations
+	MapStation                // one station's margin over the rig's weakest audible field, dB
+	MapTraps                  // number of audible stations that another station swamps
+)
+
+// Grid is a computed map: Values[iy*NX+ix], iy = 0 the northern row.
+type Grid struct {
+	Box       BBox
+	NX, NY    int
+	Kind      MapKind
+	StationID string
+	At        time.Time
+	Values    []float64
+}
+
+// MapOptions tune a map computation.
+type MapOptions struct {
+	// Stride is the spacing, in cells, of the lattice on which fields are
+	// computed exactly; between lattice nodes the per-station fields (dB)
+	// are interpolated bilinearly, except in lattice squares across which
+	// a station's ground wave changes by more than 3 dB (near the station,
+	// across coasts), which are computed exactly cell by cell. 1 computes
+	// every cell. 0 means 4.
+	Stride int
+	// Workers is the number of goroutines (0: GOMAXPROCS). WebAssembly
+	// builds run with one.
+	Workers int
+}
+
+// Map computes a map over box at nx×ny cells at instant t. For MapStation,
+// stationID names the station. Fields are those of Predict: ground wave by
+// Millington's method over the sampled ground, night sky wave with the
+// hourly loss factor, combined; the sky wave, which varies slowly, is
+// computed on a lattice four times coarser still.
+func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID string, opt MapOptions, progress Progress) (*Grid, error) {
+	if err := box.Validate(); err != nil {
+		return nil, err
+	}
+	if nx < 2 || ny < 2 || nx > 4096 || ny > 4096 {
+		return nil, fmt.Errorf("plan: map size must be 2–4096 cells each way, got %d×%d", nx, ny)
+	}
+	sel := -1
+	if kind == MapStation {
+		for i, s := range p.world.Stations {
+			if s.ID == stationID {
+				sel = i
+			}
+		}
+		if sel < 0 {
+			return nil, fmt.Errorf("plan: no station %q in the scenario", stationID)
+		}
+	}
+	stride := opt.Stride
+	if stride <= 0 {
+		stride = 4
+	}
+	workers := opt.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	ns := len(p.world.Stations)
+	cts := make([]*chainTable, ns)
+	for i, s := range p.world.Stations {
+		ct, err := p.chain(s.KHz)
+		if err != nil {
+			return nil, err
+		}
+		cts[i] = ct
+	}
+	// Lattice of exact fields: ground on stride, sky on 4·stride.
+	lx, ly := (nx-1)/stride+2, (ny-1)/stride+2
+	skyStride := 4 * stride
+	sx, sy := (nx-1)/skyStride+2, (ny-1)/skyStride+2
+	ground := make([]float64, lx*ly*ns)
+	sky := make([]float64, sx*sy*ns)
+	cellPlace := func(fx, fy float64) propagation.Place {
+		lat := box.MaxLat - (fy+0.5)*(box.MaxLat-box.MinLat)/float64(ny)
+		lon := box.MinLon + (fx+0.5)*(box.MaxLon-box.MinLon)/float64(nx)
+		pl, _ := propagation.NewPlace(math.Max(-90, math.Min(90, lat)), math.Max(-180, math.Min(180, lon)))
+		return pl
+	}
+	total := ly + sy + ny
+	var done int
+	var progMu sync.Mutex
+	step := func() {
+		if progress == nil {
+			return
+		}
+		progMu.Lock()
+		done++
+		progress(done, total)
+		progMu.Unlock()
+	}
+	var firstErr error
+	var errMu sync.Mutex
+	fail := func(err error) {
+		errMu.Lock()
+		if firstErr == nil {
+			firstErr = err
+		}
+		errMu.Unlock()
+	}
+	parallel := func(rows int, body func(row int)) {
+		var wg sync.WaitGroup
+		next := make(chan int)
+		for range workers {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				for r := range next {
+					body(r)
+					step()
+				}
+			}()
+		}
+		for r := range rows {
+			next <- r
+		}
+		close(next)
+		wg.Wait()
+	}
+	parallel(ly, func(j int) {
+		for i := range lx {
+			pl := cellPlace(float64(i*stride), float64(j*stride))
+			for k, s := range p.world.Stations {
+				g, err := p.groundAt(k, s, pl, t)
+				if err != nil {
+					fail(err)
+					return
+				}
+				ground[(j*lx+i)*ns+k] = g
+			}
+		}
+	})
+	parallel(sy, func(j int) {
+		for i := range sx {
+			pl := cellPlace(float64(i*skyStride), float64(j*skyStride))
+			for k, s := range p.world.Stations {
+				v, err := p.skyAt(k, s, pl, t)
+				if err != nil {
+					fail(err)
+					return
+				}
+				sky[(j*sx+i)*ns+k] = v
+			}
+		}
+	})
+	if firstErr != nil {
+		return nil, firstErr
+	}
+	bilinear := func(vals []float64, w, fx, fy float64, k, s int) float64 {
+		x, y := fx/w, fy/w
+		i, j := int(x), int(y)
+		u, v := x-float64(i), y-float64(j)
+		at := func(i, j int) float64 { return vals[(j*s+i)*ns+k] }
+		return (1-u)*(1-v)*at(i, j) + u*(1-v)*at(i+1, j) + (1-u)*v*at(i, j+1) + u*v*at(i+1, j+1)
+	}
+	// Where a station's field changes by more than refineDB across a
+	// lattice square (near the station, across a coast), bilinear
+	// interpolation is not trusted: those squares are computed exactly for
+	// that station.
+	const refineDB = 3.0
+	exactSq := make([]bool, (lx-1)*(ly-1)*ns)
+	for j := 0; j < ly-1; j++ {
+		for i := 0; i < lx-1; i++ {
+			for k := range ns {
+				a, b := ground[(j*lx+i)*ns+k], ground[(j*lx+i+1)*ns+k]
+				c, d := ground[((j+1)*lx+i)*ns+k], ground[((j+1)*lx+i+1)*ns+k]
+				if math.Max(math.Max(a, b), math.Max(c, d))-math.Min(math.Min(a, b), math.Min(c, d)) > refineDB {
+					exactSq[(j*(lx-1)+i)*ns+k] = true
+				}
+			}
+		}
+	}
+	g := &Grid{Box: box, NX: nx, NY: ny, Kind: kind, StationID: stationID, At: t, Values: make([]float64, nx*ny)}
+	parallel(ny, func(iy int) {
+		fields := make([]float64, ns)
+		for ix := range nx {
+			var pl propagation.Place
+			placed := false
+			for k, s := range p.world.Stations {
+				var gr float64
+				if stride == 1 || exactSq[((iy/stride)*(lx-1)+ix/stride)*ns+k] {
+					if !placed {
+						pl, placed = cellPlace(float64(ix), float64(iy)), true
+					}
+					var err error
+					if gr, err = p.groundAt(k, s, pl, t); err != nil {
+						fail(err)
+						return
+					}
+				} else {
+					gr = bilinear(ground, float64(stride), float64(ix), float64(iy), k, lx)
+				}
+				sk := bilinear(sky, float64(skyStride), float64(ix), float64(iy), k, sx)
+				fields[k] = propagation.PowerSumDBuVm(gr, sk)
+			}
+			g.Values[iy*nx+ix] = p.cellValue(kind, sel, fields, cts)
+		}
+	})
+	if firstErr != nil {
+		return nil, firstErr
+	}
+	return g, nil
+}
+
+// cellValue turns the stations' fields at one cell into the map's value.
+func (p *Planner) cellValue(kind MapKind, sel int, fields []float64, cts []*chainTable) float64 {
+	switch kind {
+	case MapStation:
+		return fields[sel] - cts[sel].minDBuVm
+	case MapTraps:
+		n := 0
+		for i, fi := range fields {
+			if fi < cts[i].minDBuVm {
+				continue
+			}
+			for j, fj := range fields {
+				if j != i && fi-fj-cts[i].front.SelectivityDB(p.world.Stations[j].KHz) < receiver.UsableProtectionDB {
+					n++
+					break
+				}
+			}
+		}
+		return float64(n)
+	}
+	n := 0
+	for i, f := range fields {
+		if f >= cts[i].minDBuVm {
+			n++
+		}
+	}
+	return float64(n)
+}
+
+// groundAt returns station k's ground-wave field at pl.
+func (p *Planner) groundAt(k int, s Station, pl propagation.Place, t time.Time) (float64, error) {
+	d := math.Max(propagation.DistanceKm(s.Place, pl), 0.05)
+	path, err := p.samplePath(s, Spot{Place: pl}, d)
+	if err != nil {
+		return 0, err
+	}
+	kw, err := p.powerAt(s, t)
+	if err != nil {
+		return 0, err
+	}
+	e, _, err := p.curves.PathFieldDBuVm(propagation.Transmitter{Freq: s.KHz, PowerKW: kw, GainDB: p.gainHorz[k]}, path)
+	return e, err
+}
+
+// noSkyDBuVm stands for "no sky wave" in interpolated lattices (−Inf
+// would turn a zero interpolation weight into NaN).
+const noSkyDBuVm = -300.0
+
+// skyAt returns station k's sky wave at pl for a wire antenna
+// (noSkyDBuVm by day).
+func (p *Planner) skyAt(k int, s Station, pl propagation.Place, t time.Time) (float64, error) {
+	if propagation.DistanceKm(s.Place, pl) < 1 {
+		return noSkyDBuVm, nil
+	}
+	kw, err := p.powerAt(s, t)
+	if err != nil {
+		return 0, err
+	}
+	sw, hl, e, err := propagation.SkyWaveAt(propagation.SkyPath{Tx: s.Place, Rx: pl, Freq: s.KHz, PowerKW: kw, HeightDeg: s.HeightDeg}, t)
+	if err != nil {
+		return 0, err
+	}
+	if hl.LossDB >= propagation.DaytimeLossDB {
+		return noSkyDBuVm, nil
+	}
+	return e + sw.ReceiveCorrDB, nil
+}
+
+// powerAt returns the station's power at t: night power when the sun is
+// down at the transmitter and a night power is given.
+func (p *Planner) powerAt(s Station, t time.Time) (float64, error) {
+	if s.KWNight <= 0 {
+		return s.KWDay, nil
+	}
+	el, err := propagation.SolarElevationDeg(t, s.Place.LatDeg(), s.Place.LonDeg())
+	if err != nil {
+		return 0, err
+	}
+	if el < propagation.RiseSetElevationDeg {
+		return s.KWNight, nil
+	}
+	return s.KWDay, nil
+}
+
+// WithRig returns a planner for the same world with another rig, sharing
+// this planner's ground-wave curves.
+func (p *Planner) WithRig(spec receiver.RigSpec) (*Planner, error) {
+	q, err := NewPlanner(p.world, spec)
+	if err != nil {
+		return nil, err
+	}
+	q.curves = p.curves
+	return q, nil
+}
+
+// WireRow is one wire length of an antenna sweep.
+type WireRow struct {
+	WireM, HeightM     float64
+	AudibleDay         int
+	AudibleNight       int
+	MarginDay, MarginN map[string]float64 // by station id
+}
+
+// WireSweep predicts at spot for each wire length (m) and height (m), by
+// day (at day) and at night (at night): how many stations each extra
+// length of wire buys.
+func (p *Planner) WireSweep(spot Spot, lengthsM, heightsM []float64, day, night time.Time, progress Progress) ([]WireRow, error) {
+	var rows []WireRow
+	total, done := len(lengthsM)*len(heightsM), 0
+	for _, h := range heightsM {
+		for _, l := range lengthsM {
+			spec := p.spec
+			spec.WireM, spec.HeightM = l, h
+			if spec.DownleadM > 2*h || spec.DownleadM < h {
+				spec.DownleadM = h
+			}
+			q, err := p.WithRig(spec)
+			if err != nil {
+				return nil, fmt.Errorf("wire %g m at %g m: %w", l, h, err)
+			}
+			row := WireRow{WireM: l, HeightM: h, MarginDay: map[string]float64{}, MarginN: map[string]float64{}}
+			for _, c := range []struct {
+				at     time.Time
+				count  *int
+				margin map[string]float64
+			}{{day, &row.AudibleDay, row.MarginDay}, {night, &row.AudibleNight, row.MarginN}} {
+				pr, err := q.Predict(spot, c.at)
+				if err != nil {
+					return nil, err
+				}
+				*c.count = pr.Audible()
+				for _, hd := range pr.Heard {
+					c.margin[hd.Station.ID] = hd.DetectorDB
+				}
+			}
+			rows = append(rows, row)
+			done++
+			if progress != nil {
+				progress(done, total)
+			}
+		}
+	}
+	return rows, nil
+}
+
+// HourRow is one hour of an hour sweep.
+type HourRow struct {
+	At      time.Time
+	Audible int
+	Night   bool
+	FieldDB map[string]float64 // combined field by station id
+	Heard   map[string]bool
+}
+
+// HourSweep predicts at spot every hour for 24 hours from start.
+func (p *Planner) HourSweep(spot Spot, start time.Time, progress Progress) ([]HourRow, error) {
+	var rows []HourRow
+	for h := range 24 {
+		at := start.Add(time.Duration(h) * time.Hour)
+		pr, err := p.Predict(spot, at)
+		if err != nil {
+			return nil, err
+		}
+		row := HourRow{At: at, Audible: pr.Audible(), Night: pr.Night, FieldDB: map[string]float64{}, Heard: map[string]bool{}}
+		for _, hd := range pr.Heard {
+			row.FieldDB[hd.Station.ID] = hd.FieldDB
+			row.Heard[hd.Station.ID] = hd.Audible
+		}
+		rows = append(rows, row)
+		if progress != nil {
+			progress(h+1, 24)
+		}
+	}
+	return rows, nil
+}
+
+// Compare predicts at each spot at t.
+func (p *Planner) Compare(spots []Spot, t time.Time) ([]Prediction, error) {
+	var out []Prediction
+	for _, s := range spots {
+		pr, err := p.Predict(s, t)
+		if err != nil {
+			return nil, err
+		}
+		out = append(out, pr)
+	}
+	return out, nil
+}
