@@ -12,6 +12,11 @@ import (
 // first position of each following arc), §2.2.5 Polygon (first ring
 // exterior, others holes), §2.2.6 MultiPolygon, §2.2.7 Geometry Collection.
 
+// coordSlackDeg is how far past ±180° / ±90° a decoded position may fall
+// before it is rejected: quantized positions x·scale + translate carry
+// floating-point rounding of order 1e-13°, far below this.
+const coordSlackDeg = 1e-9
+
 // point is a longitude/latitude pair in degrees.
 type point struct{ lon, lat float64 }
 
@@ -40,9 +45,10 @@ type topoGeometry struct {
 	Geometries []json.RawMessage `json:"geometries"`
 }
 
-// decodeTopoJSON returns the rings of the named object of a TopoJSON
-// topology, in degrees, with every arc decoded and stitched. Errors name the
-// member at fault.
+// decodeTopoJSON returns the polygon rings of the named object of a TopoJSON
+// topology, in degrees, with every arc decoded and stitched. Points and lines
+// enclose no area and are skipped, and so are rings of fewer than 4
+// positions. Errors name the member at fault.
 func decodeTopoJSON(data []byte, object string) ([]ring, error) {
 	var t topology
 	if err := json.Unmarshal(data, &t); err != nil {
@@ -98,10 +104,12 @@ func decodeArcs(in [][][]float64, tf *topoTransform) ([][]point, error) {
 				pts[j] = point{x*tf.Scale[0] + tf.Translate[0], y*tf.Scale[1] + tf.Translate[1]}
 			}
 			p := pts[j]
-			if !(p.lon >= -180 && p.lon <= 180 && p.lat >= -90 && p.lat <= 90) {
+			if !(math.Abs(p.lon) <= 180+coordSlackDeg && math.Abs(p.lat) <= 90+coordSlackDeg) {
 				return nil, fmt.Errorf("topojson: arcs[%d][%d]: position (%g, %g) is outside lon [-180, 180], lat [-90, 90]",
 					i, j, p.lon, p.lat)
 			}
+			// Quantization can land a hair outside the range; pull it back.
+			pts[j] = point{max(-180, min(180, p.lon)), max(-90, min(90, p.lat))}
 		}
 		out[i] = pts
 	}
@@ -140,8 +148,10 @@ func collectRings(raw json.RawMessage, where string, arcs [][]point, rings *[]ri
 				return err
 			}
 		}
+	case "Point", "MultiPoint", "LineString", "MultiLineString":
+		// Enclose no area: nothing to fill (§2.2.1–2.2.4).
 	default:
-		return fmt.Errorf("topojson: %s: type %q has no area; want Polygon, MultiPolygon or GeometryCollection", where, *g.Type)
+		return fmt.Errorf("topojson: %s: unknown geometry type %q", where, *g.Type)
 	}
 	return nil
 }
@@ -152,6 +162,9 @@ func appendPolygon(poly [][]int, where string, arcs [][]point, rings *[]ring) er
 		pts, err := stitch(idx, arcs, name)
 		if err != nil {
 			return err
+		}
+		if len(pts) < 4 {
+			continue // zero area
 		}
 		*rings = append(*rings, ring{pts: pts, hole: k > 0, name: name})
 	}
@@ -189,8 +202,12 @@ func stitch(idx []int, arcs [][]point, name string) ([]point, error) {
 			pts = append(pts, p)
 		}
 	}
-	if len(pts) < 4 || pts[0] != pts[len(pts)-1] {
-		return nil, fmt.Errorf("topojson: %s: ring of %d positions is not closed (needs ≥ 4, first = last)", name, len(pts))
+	if pts[0] != pts[len(pts)-1] {
+		return nil, fmt.Errorf("topojson: %s: ring of %d positions is not closed (first %v ≠ last %v)",
+			name, len(pts), pts[0], pts[len(pts)-1])
 	}
+	// Fewer than 4 positions (a LinearRing's minimum in GeoJSON, RFC 7946
+	// §3.1.6) encloses no area: quantization collapses a few islets so.
+	// The caller drops such rings.
 	return pts, nil
 }

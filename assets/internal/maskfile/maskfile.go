@@ -120,7 +120,7 @@ func (g *Grid) applyRun(r, a, b int, flip bool) {
 	}
 	row := g.Words[r*g.Stride : (r+1)*g.Stride]
 	wa, wb := a>>6, (b-1)>>6
-	ma := ^uint64(0) << (uint(a) & 63)        // bits a%64.. of word wa
+	ma := ^uint64(0) << (uint(a) & 63)          // bits a%64.. of word wa
 	mb := ^uint64(0) >> (63 - (uint(b-1) & 63)) // bits ..(b-1)%64 of word wb
 	apply := func(i int, m uint64) {
 		if flip {
