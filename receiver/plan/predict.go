@@ -3,6 +3,7 @@ package plan
 import (
 	"fmt"
 	"math"
+	"runtime"
 	"sort"
 	"sync"
 	"time"
@@ -71,6 +72,46 @@ func (p *Planner) Rig() receiver.Rig { return p.rig }
 
 // Stations returns the planner's stations.
 func (p *Planner) Stations() []Station { return p.world.Stations }
+
+// Warm computes the rig's response at every station frequency, spread
+// over GOMAXPROCS goroutines (tens of milliseconds per frequency). Predict
+// and Map call it; an app may call it between frames.
+func (p *Planner) Warm() error {
+	var todo []propagation.KHz
+	seen := map[propagation.KHz]bool{}
+	p.mu.Lock()
+	for _, s := range p.world.Stations {
+		if _, ok := p.chains[s.KHz]; !ok && !seen[s.KHz] {
+			seen[s.KHz] = true
+			todo = append(todo, s.KHz)
+		}
+	}
+	p.mu.Unlock()
+	if len(todo) == 0 {
+		return nil
+	}
+	work := make(chan propagation.KHz)
+	errs := make(chan error, len(todo))
+	var wg sync.WaitGroup
+	for range min(runtime.GOMAXPROCS(0), len(todo)) {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			for f := range work {
+				if _, err := p.chain(f); err != nil {
+					errs <- err
+				}
+			}
+		}()
+	}
+	for _, f := range todo {
+		work <- f
+	}
+	close(work)
+	wg.Wait()
+	close(errs)
+	return <-errs
+}
 
 // chainTable is the rig's response at one frequency as a function of the
 // carrier field: margin and S/N on a grid of fields, and the weakest
@@ -247,6 +288,9 @@ func pathStepKm(distKm float64) float64 {
 // stations and the trap that would cure it. Results are sorted by margin,
 // best first.
 func (p *Planner) Predict(spot Spot, t time.Time) (Prediction, error) {
+	if err := p.Warm(); err != nil {
+		return Prediction{}, err
+	}
 	pr := Prediction{Spot: spot, At: t}
 	elev, err := propagation.SolarElevationDeg(t, spot.Place.LatDeg(), spot.Place.LonDeg())
 	if err != nil {
