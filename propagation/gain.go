@@ -101,6 +101,11 @@ func MonopoleGainDB(heightDeg, elevDeg float64) (float64, error) {
 		return 0, &InputError{Field: "elevation", Value: elevDeg, Unit: "degrees", Want: ">= 0 and < 90"}
 	}
 	g := heightDeg * math.Pi / 180
+	if g < 1e-3 {
+		// Short-monopole limit: the pattern is cos θ and the normalisation
+		// is exact to O(G²) (the quadrature would lose all its digits).
+		return 20 * math.Log10(math.Cos(elevDeg*math.Pi/180)), nil
+	}
 	f := monopolePattern(g, elevDeg*math.Pi/180)
 	return 20 * math.Log10(math.Abs(f)*math.Sqrt(40/monopoleResistance(g))), nil
 }

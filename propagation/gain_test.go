@@ -51,6 +51,12 @@ func TestMonopoleGain(t *testing.T) {
 			t.Errorf("MonopoleGainDB(%g°, 0) = %.4f dB, want ≈ 0", deg, got)
 		}
 	}
+	for _, tiny := range []float64{1e-300, 1e-100, 1e-6, 0.05} {
+		got, err := MonopoleGainDB(tiny, 30)
+		if err != nil || math.Abs(got-20*math.Log10(math.Cos(math.Pi/6))) > 1e-3 {
+			t.Errorf("MonopoleGainDB(%g, 30) = %v, %v; want the short-monopole 20·log10(cos 30°)", tiny, got, err)
+		}
+	}
 	for _, bad := range []struct{ deg, elev float64 }{{0, 0}, {-10, 0}, {300, 0}, {math.NaN(), 0}, {90, 90}, {90, -1}} {
 		if _, err := MonopoleGainDB(bad.deg, bad.elev); err == nil {
 			t.Errorf("MonopoleGainDB(%g, %g): no error", bad.deg, bad.elev)

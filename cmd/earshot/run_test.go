@@ -47,7 +47,7 @@ func TestRun(t *testing.T) {
 		{"unknown flag", []string{"groundwave", "--bogus", "1"}, 2, "", `flag provided but not defined: --bogus`},
 		{"stray argument", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "1", "extra"}, 2, "", `unexpected argument "extra"`},
 		{"outside validated range", []string{"groundwave", "--khz", "1000", "--ground", "sea", "--km", "8000"}, 0, `8000`, `warning: distance: 8000 km is outside the validated`},
-		{"demo", []string{"demo"}, 0, `(?s)invented.*CFX-1.*Safety`, ""},
+		{"demo", []string{"demo"}, 0, `(?s)invented.*VSY-1.*Safety`, ""},
 		{"skywave table", []string{"skywave", "--from", "51.5,-0.1", "--to", "40.4,-3.7", "--khz", "999", "--kw", "100"}, 0, `(?s)slant distance p\s+1280\.56\s+km.*median at SS\+6 h`, ""},
 		{"skywave help", []string{"skywave", "--help"}, 0, `(?s)P\.1147.*--at.*--from.*--to`, ""},
 		{"skywave missing from", []string{"skywave", "--to", "1,1", "--khz", "900"}, 2, "", `--from is required`},
