@@ -9,7 +9,7 @@ WASMEXEC  = $(shell $(GO) env GOROOT)/lib/wasm/go_js_wasm_exec
 
 ## run: the main job on the embedded demo scenario
 run:
-	$(GO) run ./cmd/earshot demo
+	$(GO) run ./cmd/earshot predict
 
 ## test: formatting, vet, all tests, short fuzz runs, and the WebAssembly build
 test: fmt vet unit fuzz wasm

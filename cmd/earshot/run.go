@@ -34,6 +34,10 @@ func init() {
 		{"rig", "the receiving chain stage by stage, and the weakest audible field", runRig},
 		{"coil", "single-layer coil: inductance, Q, or turns for an inductance", runCoil},
 		{"trap", "wave trap against a strong station: parts, notch, cost, verdict", runTrap},
+		{"predict", "what the rig hears at a spot: every station, best first", runPredict},
+		{"map", "map picture: audible stations, one station's margin, or where traps are needed", runMap},
+		{"sweep", "wire-length or hour-by-hour sweep at a spot", runSweep},
+		{"compare", "stations × listening spots", runCompare},
 		{"demo", "ground-wave table for the embedded demo scenario", runDemo},
 	}
 }

@@ -223,6 +223,8 @@ func (ct *chainTable) margin(e float64) float64 {
 // Trap is the wave trap a masked station needs.
 type Trap struct {
 	AgainstID    string
+	AgainstKHz   propagation.KHz
+	NeedDB       float64 // attenuation asked of it at the masker's frequency
 	Kind         string
 	InductanceUH float64
 	CapacitancPF float64
@@ -350,7 +352,10 @@ func (p *Planner) station(i int, s Station, spot Spot, t time.Time) (Heard, erro
 		if err != nil {
 			return Heard{}, err
 		}
-		if hl.LossDB < propagation.DaytimeLossDB {
+		// The sky wave counts at night and through the transition; with the
+		// sun more than 10° up at the path midpoint it is absorbed (P.1147
+		// Annex 2) and reported as absent.
+		if hl.LossDB < propagation.DaytimeLossDB && hl.SunElevMidDeg < 10 {
 			sky := e + sw.ReceiveCorrDB
 			h.SkyDB = &sky
 			h.SkyDecile = sw.DecileSpread
@@ -417,7 +422,8 @@ func (p *Planner) masking(heard []Heard) error {
 		m := ms[0]
 		for j := range heard {
 			if heard[j].Station.ID == m.Other.Name {
-				h.MaskedBy = &heard[j].Station
+				masker := heard[j].Station // a copy: heard is sorted later
+				h.MaskedBy = &masker
 			}
 		}
 		if m.Other.KHz == m.Wanted.KHz {
@@ -428,36 +434,49 @@ func (p *Planner) masking(heard []Heard) error {
 	return nil
 }
 
-// trap designs (or recalls) a series-resonant shunt trap with a 500 pF
-// capacitor and a coil of Q 150 — parts a listener can easily get — in the
-// antenna lead against the masking station; nil when no trap can be built.
+// trapCapsPF are the capacitors tried for a trap, common fixed values.
+var trapCapsPF = []float64{100, 220, 470, 1000, 2200}
+
+// trap designs (or recalls) a series-resonant shunt trap in the antenna
+// lead against the masking station, with a coil of Q 150 and one of the
+// common capacitors trapCapsPF: the first that cures the masking with
+// the least loss to the wanted station, else the deepest; nil when no trap
+// can be built.
 func (p *Planner) trap(fr receiver.Front, m receiver.Masking) *Trap {
 	key := trapKey{m.Wanted.KHz, m.Other.KHz, 2 * math.Ceil(m.ShortDB/2)}
 	p.mu.Lock()
 	t, ok := p.traps[key]
 	p.mu.Unlock()
-	if ok {
-		if t == nil {
-			return nil
+	if !ok {
+		m.ShortDB = key.needDB
+		var best *receiver.TrapAdvice
+		for _, c := range trapCapsPF {
+			adv, err := fr.TrapFor(m, receiver.SeriesShuntTrap, 0, c, 150)
+			if err != nil {
+				continue
+			}
+			better := best == nil ||
+				adv.Fixes && (!best.Fixes || adv.WantedLossDB < best.WantedLossDB) ||
+				!adv.Fixes && !best.Fixes && adv.NotchDB > best.NotchDB
+			if better {
+				a := adv
+				best = &a
+			}
 		}
-		c := *t
-		c.AgainstID = m.Other.Name
-		return &c
+		if best != nil {
+			t = &Trap{Kind: best.Trap.Kind.String(), InductanceUH: best.Trap.InductanceUH, NeedDB: key.needDB + 6,
+				CapacitancPF: best.Trap.CapacitancePF, NotchDB: best.NotchDB, WantedLossDB: best.WantedLossDB,
+				Fixes: best.Fixes, Advice: best.Reason}
+		}
+		p.mu.Lock()
+		p.traps[key] = t
+		p.mu.Unlock()
 	}
-	m.ShortDB = key.needDB
-	adv, err := fr.TrapFor(m, receiver.SeriesShuntTrap, 0, 500, 150)
-	if err == nil {
-		t = &Trap{AgainstID: m.Other.Name, Kind: adv.Trap.Kind.String(), InductanceUH: adv.Trap.InductanceUH,
-			CapacitancPF: adv.Trap.CapacitancePF, NotchDB: adv.NotchDB, WantedLossDB: adv.WantedLossDB,
-			Fixes: adv.Fixes, Advice: adv.Reason}
-	}
-	p.mu.Lock()
-	p.traps[key] = t
-	p.mu.Unlock()
 	if t == nil {
 		return nil
 	}
 	c := *t
+	c.AgainstID, c.AgainstKHz = m.Other.Name, m.Other.KHz
 	return &c
 }
 
@@ -472,6 +491,8 @@ func verdict(h *Heard) string {
 		return "too weak to hear"
 	case h.MaskedBy != nil && h.Trap != nil && h.Trap.Fixes:
 		return "swamped by " + h.MaskedBy.ID + ": a wave trap cures it"
+	case h.MaskedBy != nil && h.Trap != nil:
+		return "swamped by " + h.MaskedBy.ID + "; a trap helps but does not cure it"
 	case h.MaskedBy != nil:
 		return "swamped by " + h.MaskedBy.ID
 	case h.Fading:
