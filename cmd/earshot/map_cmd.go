@@ -243,7 +243,7 @@ func renderMap(g *plan.Grid, l *loaded) *image.RGBA {
 		text(x+7, y-6, sp.Name, color.RGBA{255, 255, 255, 255})
 	}
 	when := g.At.UTC().Format("2006-01-02 15:04 UTC")
-	text(mapMargin, mapMargin+14, fmt.Sprintf("%s — %s — %s", l.sc.Name, label, when), ink)
+	text(mapMargin, mapMargin+14, fmt.Sprintf("%s - %s - %s", l.sc.Name, label, when), ink) // the bitmap font is ASCII
 	// Legend: colour bar with ticks.
 	lx, ly := mw+2*mapMargin, oy
 	barH := mh - 40

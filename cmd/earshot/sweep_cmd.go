@@ -142,7 +142,7 @@ func runSweep(args []string, stdout, stderr io.Writer) int {
 		return report("sweep", usagef("want \"sweep wire\" or \"sweep hours\", got %q", mode), stderr)
 	}
 	if *out != "" {
-		if err := writePlot(*out, fmt.Sprintf("%s — %s", l.sc.Name, spot.Name), xlabel, "stations audible", xs, series); err != nil {
+		if err := writePlot(*out, fmt.Sprintf("%s - %s", l.sc.Name, spot.Name), xlabel, "stations audible", xs, series); err != nil {
 			return report("sweep", err, stderr)
 		}
 		fmt.Fprintf(stdout, "wrote %s\n", *out)
