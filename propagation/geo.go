@@ -244,6 +244,12 @@ type GroundMap func(latDeg, lonDeg float64) Ground
 // same place (no path); a wrapped error naming the sample if ground returns
 // an invalid Ground; an error if ground is nil.
 func SamplePath(ground GroundMap, tx, rx Place, stepKm float64) (Path, error) {
+	return AppendSamplePath(nil, ground, tx, rx, stepKm)
+}
+
+// AppendSamplePath is SamplePath appending the segments to dst (which it
+// may reuse), so that a caller sampling many paths allocates nothing.
+func AppendSamplePath(dst Path, ground GroundMap, tx, rx Place, stepKm float64) (Path, error) {
 	if ground == nil {
 		return nil, fmt.Errorf("propagation: ground map must not be nil")
 	}
@@ -268,52 +274,52 @@ func SamplePath(ground GroundMap, tx, rx Place, stepKm float64) (Path, error) {
 	k := int(intervals) // number of intervals, ≥ 1
 
 	// Tangent at tx towards rx, scaled to unit length: sample i is
-	// cos(θᵢ)·a + sin(θᵢ)·t̂ with θᵢ = σ·i/k (as s2.InterpolateAtDistance).
+	// cos(θᵢ)·a + sin(θᵢ)·t̂ with θᵢ = σ·i/k (as s2.InterpolateAtDistance),
+	// stepped by the angle-addition recurrence (two multiply-adds a sample
+	// instead of a Sincos; rounding grows like i·ε, negligible here).
 	tangent := pathNormal(pa, pb).Cross(pa.Vector)
 	tangent = tangent.Mul(1 / tangent.Norm())
+	stepSin, stepCos := math.Sincos(sigma.Radians() / float64(k))
+	curSin, curCos := 0.0, 1.0
 
-	groundAt := func(i int) (Ground, error) {
-		var pl Place
-		switch i {
-		case 0:
-			pl = tx
-		case k:
-			pl = rx
-		default:
-			sin, cos := math.Sincos(sigma.Radians() * float64(i) / float64(k))
-			pl = placeFromPoint(s2.Point{Vector: pa.Mul(cos).Add(tangent.Mul(sin)).Normalize()})
-		}
-		g := ground(pl.latDeg, pl.lonDeg)
-		if err := g.Validate(); err != nil {
-			return g, fmt.Errorf("propagation: ground map at sample %d of %d (%v, %.6g km from the transmitter): %w",
-				i+1, k+1, pl, distKm*float64(i)/float64(k), err)
-		}
-		return g, nil
-	}
-
-	cur, err := groundAt(0)
-	if err != nil {
-		return nil, err
-	}
 	// Boundary positions are rounded to multiples of q = ulp(d). Every
 	// length is then a multiple of q no larger than d, so every partial sum
 	// is exact and the lengths add up to d exactly in any order. The
 	// rounding moves a boundary by at most q/2 (≈ 3e-14 km at 500 km).
 	q := math.Nextafter(distKm, math.Inf(1)) - distKm
-	path := make(Path, 0, 4)
+	path := dst[:0]
 	var prevKm float64 // position of the previous boundary, a multiple of q
-	for i := 1; i <= k; i++ {
-		g, err := groundAt(i)
-		if err != nil {
-			return nil, err
+	var cur Ground
+	for i := 0; i <= k; i++ {
+		var lat, lon float64
+		switch i {
+		case 0:
+			lat, lon = tx.latDeg, tx.lonDeg
+		case k:
+			lat, lon = rx.latDeg, rx.lonDeg
+		default:
+			curSin, curCos = curSin*stepCos+curCos*stepSin, curCos*stepCos-curSin*stepSin
+			x := pa.X*curCos + tangent.X*curSin
+			y := pa.Y*curCos + tangent.Y*curSin
+			z := pa.Z*curCos + tangent.Z*curSin
+			lat = math.Atan2(z, math.Sqrt(x*x+y*y)) * 180 / math.Pi
+			lon = math.Atan2(y, x) * 180 / math.Pi
 		}
-		if g == cur {
+		g := ground(lat, lon)
+		if i > 0 && g == cur {
 			continue
 		}
-		// halfway between samples i−1 and i
-		boundaryKm := math.Round(distKm*(float64(2*i-1)/float64(2*k))/q) * q
-		path = append(path, Segment{LengthKm: boundaryKm - prevKm, Ground: cur})
-		prevKm = boundaryKm
+		if err := g.Validate(); err != nil {
+			pl := Place{latDeg: lat, lonDeg: lon}
+			return nil, fmt.Errorf("propagation: ground map at sample %d of %d (%v, %.6g km from the transmitter): %w",
+				i+1, k+1, pl, distKm*float64(i)/float64(k), err)
+		}
+		if i > 0 {
+			// halfway between samples i−1 and i
+			boundaryKm := math.Round(distKm*(float64(2*i-1)/float64(2*k))/q) * q
+			path = append(path, Segment{LengthKm: boundaryKm - prevKm, Ground: cur})
+			prevKm = boundaryKm
+		}
 		cur = g
 	}
 	path = append(path, Segment{LengthKm: distKm - prevKm, Ground: cur})

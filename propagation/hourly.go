@@ -174,7 +174,13 @@ func nearestSunEvents(t time.Time, p Place) (sunset, sunrise time.Time, state Su
 	t = t.UTC()
 	day := time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
 	var lastSS, nextSS, lastSR, nextSR time.Time
-	for k := -2; k <= 2; k++ {
+	// The solar days before, of and after t bound it in all but polar
+	// seasons; two more days each side only when an event is missing.
+	days := []int{-1, 0, 1, -2, 2}
+	for n, k := range days {
+		if n == 3 && !lastSS.IsZero() && !nextSS.IsZero() && !lastSR.IsZero() && !nextSR.IsZero() {
+			break
+		}
 		sd, err := SunEvents(day.AddDate(0, 0, k), p.LatDeg(), p.LonDeg())
 		if err != nil {
 			return time.Time{}, time.Time{}, 0, err
@@ -182,18 +188,22 @@ func nearestSunEvents(t time.Time, p Place) (sunset, sunrise time.Time, state Su
 		if k == 0 {
 			state = sd.State
 		}
-		for _, ev := range []struct {
-			at         time.Time
-			last, next *time.Time
-		}{{sd.Sunset, &lastSS, &nextSS}, {sd.Sunrise, &lastSR, &nextSR}} {
-			switch {
-			case ev.at.IsZero():
-			case !ev.at.After(t):
-				if ev.at.After(*ev.last) {
-					*ev.last = ev.at
+		if ev := sd.Sunset; !ev.IsZero() {
+			if !ev.After(t) {
+				if ev.After(lastSS) {
+					lastSS = ev
 				}
-			case ev.next.IsZero() || ev.at.Before(*ev.next):
-				*ev.next = ev.at
+			} else if nextSS.IsZero() || ev.Before(nextSS) {
+				nextSS = ev
+			}
+		}
+		if ev := sd.Sunrise; !ev.IsZero() {
+			if !ev.After(t) {
+				if ev.After(lastSR) {
+					lastSR = ev
+				}
+			} else if nextSR.IsZero() || ev.Before(nextSR) {
+				nextSR = ev
 			}
 		}
 	}

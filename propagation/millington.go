@@ -167,11 +167,14 @@ func pathField(tx Transmitter, p Path, curveFor func(Ground) (FieldCurve, error)
 		return 0, nil, err
 	}
 	warn = append(warn, pw...)
-	curves := make([]FieldCurve, len(p))
-	for i, s := range p {
-		if curves[i], err = curveFor(s.Ground); err != nil {
+	var buf [8]FieldCurve // most paths have few segments: no allocation
+	curves := buf[:0]
+	for _, s := range p {
+		c, err := curveFor(s.Ground)
+		if err != nil {
 			return 0, nil, err
 		}
+		curves = append(curves, c)
 	}
 	e := MillingtonDBuVm(p, curves) + tx.sourceDB()
 	if math.IsNaN(e) || math.IsInf(e, 0) {

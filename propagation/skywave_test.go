@@ -327,6 +327,12 @@ func TestCombining(t *testing.T) {
 	if got := PowerSumDBuVm(40, 40); math.Abs(got-40-10*math.Log10(2)) > 1e-12 {
 		t.Errorf("PowerSumDBuVm(40, 40) = %g", got)
 	}
+	for d := 0.0; d < 90; d += 0.0137 { // the table against the closed form
+		want := 50 + 10*math.Log10(1+math.Pow(10, -d/10))
+		if got := PowerSumDBuVm(50, 50-d); math.Abs(got-want) > 1e-5 {
+			t.Fatalf("PowerSumDBuVm(50, %g) = %.8f, want %.8f", 50-d, got, want)
+		}
+	}
 	if got := PowerSumDBuVm(math.Inf(-1), 30); got != 30 {
 		t.Errorf("PowerSumDBuVm(-Inf, 30) = %g", got)
 	}

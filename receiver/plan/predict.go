@@ -274,12 +274,13 @@ func (pr Prediction) Audible() int {
 	return n
 }
 
-// pathStepKm returns the sampling step for a path of distKm: about 50
-// samples, never finer than 1 km nor coarser than 20 km (a coastline is
-// then placed within half a step, which moves a Millington field by a
-// fraction of a dB on paths long enough to need the coarse step).
+// pathStepKm returns the sampling step for a path of distKm: about 25
+// samples, never finer than 1 km nor coarser than 20 km. A coastline is
+// then placed within half a step (2 % of the path), which moves a
+// Millington field by a fraction of a dB; the ground map itself is a few
+// km coarse.
 func pathStepKm(distKm float64) float64 {
-	return math.Min(20, math.Max(1, distKm/50))
+	return math.Min(20, math.Max(1, distKm/25))
 }
 
 // Predict returns what the rig hears at spot at instant t: every station's

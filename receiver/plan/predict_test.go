@@ -300,4 +300,13 @@ func BenchmarkMap(b *testing.B) {
 			}
 		}
 	})
+	// The direct evaluation it replaces: every cell and station exact.
+	b.Run("256x256-30-stations-every-cell-exact", func(b *testing.B) {
+		b.ReportAllocs()
+		for b.Loop() {
+			if _, err := p.Map(box, 256, 256, at, MapCount, "", MapOptions{Stride: 1}, nil); err != nil {
+				b.Fatal(err)
+			}
+		}
+	})
 }

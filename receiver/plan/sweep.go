@@ -176,16 +176,22 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		close(next)
 		wg.Wait()
 	}
+	svec := make([][3]float64, ns)
+	for k, s := range p.world.Stations {
+		svec[k] = unitVec(s.Place.LatDeg(), s.Place.LonDeg())
+	}
 	parallel(ly, func(j int) {
+		var buf propagation.Path
 		for i := range lx {
 			pl := cellPlace(float64(i*stride), float64(j*stride))
+			v := unitVec(pl.LatDeg(), pl.LonDeg())
 			for k, s := range p.world.Stations {
-				g, err := p.groundAt(k, s, pl, t)
+				g, err := p.groundAt(k, s, pl, t, &buf)
 				if err != nil {
 					fail(err)
 					return
 				}
-				ground[(j*lx+i)*ns+k] = g
+				ground[(j*lx+i)*ns+k] = g - spreadDB(arcKm(svec[k], v))
 			}
 		}
 	})
@@ -212,8 +218,9 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		at := func(i, j int) float64 { return vals[(j*s+i)*ns+k] }
 		return (1-u)*(1-v)*at(i, j) + u*(1-v)*at(i+1, j) + (1-u)*v*at(i, j+1) + u*v*at(i+1, j+1)
 	}
-	// Where a station's field changes by more than refineDB across a
-	// lattice square (near the station, across a coast), bilinear
+	// The lattice holds each station's field less its inverse-distance
+	// spread. Where that changes by more than refineDB across a lattice
+	// square (across a coast, very close to the station), bilinear
 	// interpolation is not trusted: those squares are computed exactly for
 	// that station.
 	const refineDB = 3.0
@@ -232,9 +239,12 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 	g := &Grid{Box: box, NX: nx, NY: ny, Kind: kind, StationID: stationID, At: t, Values: make([]float64, nx*ny)}
 	parallel(ny, func(iy int) {
 		fields := make([]float64, ns)
+		var buf propagation.Path
 		for ix := range nx {
 			var pl propagation.Place
 			placed := false
+			lat, lon := box.Cell(ix, iy, nx, ny)
+			v := unitVec(lat, lon)
 			for k, s := range p.world.Stations {
 				var gr float64
 				if stride == 1 || exactSq[((iy/stride)*(lx-1)+ix/stride)*ns+k] {
@@ -242,12 +252,12 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 						pl, placed = cellPlace(float64(ix), float64(iy)), true
 					}
 					var err error
-					if gr, err = p.groundAt(k, s, pl, t); err != nil {
+					if gr, err = p.groundAt(k, s, pl, t, &buf); err != nil {
 						fail(err)
 						return
 					}
 				} else {
-					gr = bilinear(ground, float64(stride), float64(ix), float64(iy), k, lx)
+					gr = bilinear(ground, float64(stride), float64(ix), float64(iy), k, lx) + spreadDB(arcKm(svec[k], v))
 				}
 				sk := bilinear(sky, float64(skyStride), float64(ix), float64(iy), k, sx)
 				fields[k] = propagation.PowerSumDBuVm(gr, sk)
@@ -260,6 +270,28 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 	}
 	return g, nil
 }
+
+// unitVec returns the unit vector of a place on the sphere.
+func unitVec(latDeg, lonDeg float64) [3]float64 {
+	sl, cl := math.Sincos(latDeg * math.Pi / 180)
+	so, co := math.Sincos(lonDeg * math.Pi / 180)
+	return [3]float64{cl * co, cl * so, sl}
+}
+
+// arcKm returns the great-circle distance between two unit vectors (the
+// robust atan2 form; the same sphere as propagation.DistanceKm).
+func arcKm(a, b [3]float64) float64 {
+	cx := a[1]*b[2] - a[2]*b[1]
+	cy := a[2]*b[0] - a[0]*b[2]
+	cz := a[0]*b[1] - a[1]*b[0]
+	dot := a[0]*b[0] + a[1]*b[1] + a[2]*b[2]
+	return propagation.EarthRadiusKm * math.Atan2(math.Sqrt(cx*cx+cy*cy+cz*cz), dot)
+}
+
+// spreadDB is the inverse-distance part of the field, −20·log10(d_km),
+// taken out before interpolation so that what is interpolated (the
+// attenuation and the source term) is smooth right up to the station.
+func spreadDB(dKm float64) float64 { return -20 * math.Log10(math.Max(dKm, 0.05)) }
 
 // cellValue turns the stations' fields at one cell into the map's value.
 func (p *Planner) cellValue(kind MapKind, sel int, fields []float64, cts []*chainTable) float64 {
@@ -290,12 +322,20 @@ func (p *Planner) cellValue(kind MapKind, sel int, fields []float64, cts []*chai
 	return float64(n)
 }
 
-// groundAt returns station k's ground-wave field at pl.
-func (p *Planner) groundAt(k int, s Station, pl propagation.Place, t time.Time) (float64, error) {
+// groundAt returns station k's ground-wave field at pl, sampling the
+// path into *buf (reused between calls by one goroutine).
+func (p *Planner) groundAt(k int, s Station, pl propagation.Place, t time.Time, buf *propagation.Path) (float64, error) {
 	d := math.Max(propagation.DistanceKm(s.Place, pl), 0.05)
-	path, err := p.samplePath(s, Spot{Place: pl}, d)
-	if err != nil {
-		return 0, err
+	var path propagation.Path
+	var err error
+	if propagation.DistanceKm(s.Place, pl) < 0.05 {
+		path = propagation.Path{{LengthKm: d, Ground: p.world.Ground(s.Place.LatDeg(), s.Place.LonDeg())}}
+	} else {
+		path, err = propagation.AppendSamplePath(*buf, p.world.Ground, s.Place, pl, pathStepKm(d))
+		if err != nil {
+			return 0, err
+		}
+		*buf = path
 	}
 	kw, err := p.powerAt(s, t)
 	if err != nil {
