@@ -23,7 +23,7 @@ type Planner struct {
 	spec     receiver.RigSpec
 	rig      receiver.Rig
 	curves   *propagation.CurveCache
-	mu       sync.Mutex
+	mu       *sync.Mutex // shared by the views made for one-station maps
 	chains   map[propagation.KHz]*chainTable
 	gainHorz []float64 // per station, G_V at the horizon
 	traps    map[trapKey]*Trap
@@ -48,7 +48,7 @@ func NewPlanner(w World, spec receiver.RigSpec) (*Planner, error) {
 	if err != nil {
 		return nil, err
 	}
-	p := &Planner{world: w, spec: spec, rig: rig, curves: new(propagation.CurveCache), chains: map[propagation.KHz]*chainTable{}, traps: map[trapKey]*Trap{}}
+	p := &Planner{world: w, spec: spec, rig: rig, curves: new(propagation.CurveCache), mu: new(sync.Mutex), chains: map[propagation.KHz]*chainTable{}, traps: map[trapKey]*Trap{}}
 	for i, s := range w.Stations {
 		if _, err := (propagation.Transmitter{Freq: s.KHz, PowerKW: s.KWDay}).Validate(); err != nil {
 			return nil, fmt.Errorf("plan: station %d (%s): %w", i+1, s.ID, err)
@@ -274,13 +274,13 @@ func (pr Prediction) Audible() int {
 	return n
 }
 
-// pathStepKm returns the sampling step for a path of distKm: about 25
+// pathStepKm returns the sampling step for a path of distKm: about 16
 // samples, never finer than 1 km nor coarser than 20 km. A coastline is
-// then placed within half a step (2 % of the path), which moves a
+// then placed within half a step (3 % of the path), which moves a
 // Millington field by a fraction of a dB; the ground map itself is a few
 // km coarse.
 func pathStepKm(distKm float64) float64 {
-	return math.Min(20, math.Max(1, distKm/25))
+	return math.Min(20, math.Max(1, distKm/16))
 }
 
 // Predict returns what the rig hears at spot at instant t: every station's

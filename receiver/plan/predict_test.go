@@ -259,6 +259,23 @@ func TestMapMatchesPredict(t *testing.T) {
 			t.Errorf("cell %v: map count %g, Predict %d", c, got, pr.Audible())
 		}
 	}
+	one, err := p.Map(box, 24, 24, noon, MapStation, "C", MapOptions{Stride: 1}, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	lat, lon := box.Cell(7, 9, 24, 24)
+	pr, err := p.Predict(Spot{"c", place(t, lat, lon)}, noon)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, h := range pr.Heard {
+		if h.Station.ID == "C" && math.Abs(one.Values[9*24+7]-h.DetectorDB) > 1e-9 {
+			t.Errorf("station map %.4f dB, Predict %.4f dB above the weakest audible field", one.Values[9*24+7], h.DetectorDB)
+		}
+	}
+	if _, err := p.Map(box, 24, 24, noon, MapStation, "nope", MapOptions{}, nil); err == nil {
+		t.Errorf("map of an unknown station: no error")
+	}
 	fast, err := p.Map(box, 24, 24, noon, MapCount, "", MapOptions{Stride: 4}, nil)
 	if err != nil {
 		t.Fatal(err)

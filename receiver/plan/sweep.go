@@ -115,6 +115,14 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
+	world := p.world
+	if kind == MapStation {
+		// Only the chosen station's field is drawn.
+		world.Stations = []Station{p.world.Stations[sel]}
+		q := *p
+		q.world, q.gainHorz = world, []float64{p.gainHorz[sel]}
+		p, sel = &q, 0
+	}
 	ns := len(p.world.Stations)
 	cts := make([]*chainTable, ns)
 	for i, s := range p.world.Stations {
@@ -128,7 +136,8 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 	lx, ly := (nx-1)/stride+2, (ny-1)/stride+2
 	skyStride := 4 * stride
 	sx, sy := (nx-1)/skyStride+2, (ny-1)/skyStride+2
-	ground := make([]float64, lx*ly*ns)
+	ground := make([]float64, lx*ly*ns) // field less its spread
+	spread := make([]float64, lx*ly*ns) // the spread −20·log10 d
 	sky := make([]float64, sx*sy*ns)
 	cellPlace := func(fx, fy float64) propagation.Place {
 		lat := box.MaxLat - (fy+0.5)*(box.MaxLat-box.MinLat)/float64(ny)
@@ -191,7 +200,9 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 					fail(err)
 					return
 				}
-				ground[(j*lx+i)*ns+k] = g - spreadDB(arcKm(svec[k], v))
+				sp := spreadDB(arcKm(svec[k], v))
+				ground[(j*lx+i)*ns+k] = g - sp
+				spread[(j*lx+i)*ns+k] = sp
 			}
 		}
 	})
@@ -224,18 +235,37 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 	// interpolation is not trusted: those squares are computed exactly for
 	// that station.
 	const refineDB = 3.0
-	exactSq := make([]bool, (lx-1)*(ly-1)*ns)
+	// Where the spread itself varies by under 0.5 dB across a square (far
+	// from the station) it is interpolated with the rest, saving a distance
+	// per cell.
+	const (
+		sqSmooth = iota // interpolate field and spread together
+		sqSpread        // interpolate the attenuation, compute the spread
+		sqExact         // compute the field
+	)
+	rangeOf := func(vals []float64, i, j, k int) float64 {
+		a, b := vals[(j*lx+i)*ns+k], vals[(j*lx+i+1)*ns+k]
+		c, d := vals[((j+1)*lx+i)*ns+k], vals[((j+1)*lx+i+1)*ns+k]
+		return math.Max(math.Max(a, b), math.Max(c, d)) - math.Min(math.Min(a, b), math.Min(c, d))
+	}
+	sqKind := make([]uint8, (lx-1)*(ly-1)*ns)
 	for j := 0; j < ly-1; j++ {
 		for i := 0; i < lx-1; i++ {
 			for k := range ns {
-				a, b := ground[(j*lx+i)*ns+k], ground[(j*lx+i+1)*ns+k]
-				c, d := ground[((j+1)*lx+i)*ns+k], ground[((j+1)*lx+i+1)*ns+k]
-				if math.Max(math.Max(a, b), math.Max(c, d))-math.Min(math.Min(a, b), math.Min(c, d)) > refineDB {
-					exactSq[(j*(lx-1)+i)*ns+k] = true
+				switch {
+				case rangeOf(ground, i, j, k) > refineDB:
+					sqKind[(j*(lx-1)+i)*ns+k] = sqExact
+				case rangeOf(spread, i, j, k) > 0.5:
+					sqKind[(j*(lx-1)+i)*ns+k] = sqSpread
 				}
 			}
 		}
 	}
+	// Field (attenuation + spread) at the lattice nodes, for sqSmooth.
+	for i := range ground {
+		spread[i] += ground[i]
+	}
+	field := spread
 	g := &Grid{Box: box, NX: nx, NY: ny, Kind: kind, StationID: stationID, At: t, Values: make([]float64, nx*ny)}
 	parallel(ny, func(iy int) {
 		fields := make([]float64, ns)
@@ -247,7 +277,12 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 			v := unitVec(lat, lon)
 			for k, s := range p.world.Stations {
 				var gr float64
-				if stride == 1 || exactSq[((iy/stride)*(lx-1)+ix/stride)*ns+k] {
+				sq := uint8(sqExact)
+				if stride > 1 {
+					sq = sqKind[((iy/stride)*(lx-1)+ix/stride)*ns+k]
+				}
+				switch sq {
+				case sqExact:
 					if !placed {
 						pl, placed = cellPlace(float64(ix), float64(iy)), true
 					}
@@ -256,8 +291,10 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 						fail(err)
 						return
 					}
-				} else {
+				case sqSpread:
 					gr = bilinear(ground, float64(stride), float64(ix), float64(iy), k, lx) + spreadDB(arcKm(svec[k], v))
+				default:
+					gr = bilinear(field, float64(stride), float64(ix), float64(iy), k, lx)
 				}
 				sk := bilinear(sky, float64(skyStride), float64(ix), float64(iy), k, sx)
 				fields[k] = propagation.PowerSumDBuVm(gr, sk)
