@@ -21,6 +21,7 @@ import (
 // worldFlags are the flags that choose the scenario, the spot and the time.
 type worldFlags struct {
 	scenario, stations string
+	landGround         string
 	spots              multiFlag
 	lat, lon           float64
 	at                 string
@@ -38,6 +39,7 @@ func addWorldFlags(fs *flag.FlagSet, withSpot bool) *worldFlags {
 	w := &worldFlags{fs: fs}
 	fs.StringVar(&w.scenario, "scenario", "", "scenario JSON file (default: the embedded, invented demo)")
 	fs.StringVar(&w.stations, "stations", "", "CSV of your own stations (id,name,khz,kw,lat,lon[,kw_night,height_deg]) instead of a scenario")
+	fs.StringVar(&w.landGround, "land-ground", "", "ground of land outside the scenario's regions: a standard name or SIGMA/EPSR (default the scenario's, usually land)")
 	if withSpot {
 		fs.Var(&w.spots, "spot", "listening spot by name (default: the scenario's first)")
 		fs.Float64Var(&w.lat, "at-lat", 0, "listening spot latitude, degrees, instead of --spot")
@@ -95,6 +97,12 @@ func (w *worldFlags) load(set map[string]bool) (*loaded, error) {
 		if sc, err = assets.Demo(); err != nil {
 			return nil, err
 		}
+	}
+	if set["land-ground"] {
+		if _, err := propagation.ParseGround(w.landGround); err != nil {
+			return nil, usagef("--land-ground: %s", trimPkg(err))
+		}
+		sc.LandGround = w.landGround
 	}
 	l := &loaded{sc: sc}
 	switch {

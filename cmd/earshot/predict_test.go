@@ -152,6 +152,7 @@ func TestMapAndSweepRun(t *testing.T) {
 		{"map", "--out", out, "--show", "colour"},
 		{"map", "--out", out, "--grid", "4"},
 		{"predict", "--spot", "nowhere"},
+		{"predict", "--land-ground", "mud"},
 		{"predict", "--at-lat", "95", "--at-lon", "0"},
 		{"sweep", "wire", "--lengths", "0"},
 		{"sweep", "sideways"},
