@@ -56,36 +56,29 @@ func rigFlags(fs *flag.FlagSet) *receiver.RigSpec {
 	return &s
 }
 
-func groundSystemNames() string {
+// nameList joins the names of a preset list for flag help.
+func nameList[T any](items []T, name func(T) string) string {
 	var n []string
-	for _, g := range receiver.GroundSystems() {
-		n = append(n, g.Name)
+	for _, it := range items {
+		n = append(n, name(it))
 	}
 	return strings.Join(n, ", ")
+}
+
+func groundSystemNames() string {
+	return nameList(receiver.GroundSystems(), func(g receiver.GroundSystem) string { return g.Name })
 }
 
 func diodeNames() string {
-	var n []string
-	for _, d := range receiver.DiodePresets() {
-		n = append(n, d.Name)
-	}
-	return strings.Join(n, ", ")
+	return nameList(receiver.DiodePresets(), func(d receiver.Diode) string { return d.Name })
 }
 
 func phonesNames() string {
-	var n []string
-	for _, p := range receiver.PhonesPresets() {
-		n = append(n, p.Name)
-	}
-	return strings.Join(n, ", ")
+	return nameList(receiver.PhonesPresets(), func(p receiver.Phones) string { return p.Name })
 }
 
 func noiseNames() string {
-	var n []string
-	for _, e := range receiver.NoiseEnvs() {
-		n = append(n, e.Name)
-	}
-	return strings.Join(n, ", ")
+	return nameList(receiver.NoiseEnvs(), func(e receiver.NoiseEnv) string { return e.Name })
 }
 
 // buildRig checks the named parts of a spec, naming the flag at fault,
