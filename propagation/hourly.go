@@ -173,6 +173,29 @@ func HourlyLossDB(t time.Time, tx, rx Place) (HourlyLoss, error) {
 func nearestSunEvents(t time.Time, p Place) (sunset, sunrise time.Time, state SunState, err error) {
 	t = t.UTC()
 	day := time.Date(t.Year(), t.Month(), t.Day(), 0, 0, 0, 0, time.UTC)
+	// The usual case in one or two solar days: today's sunrise and sunset
+	// bound the day; before sunrise the night began at yesterday's
+	// sunset; after sunset it ends at tomorrow's sunrise.
+	today, err := SunEvents(day, p.LatDeg(), p.LonDeg())
+	if err != nil {
+		return time.Time{}, time.Time{}, 0, err
+	}
+	if today.State == SunNormal && !today.Sunrise.After(today.Sunset) {
+		switch {
+		case t.Before(today.Sunrise):
+			prev, err := SunEvents(day.AddDate(0, 0, -1), p.LatDeg(), p.LonDeg())
+			if err == nil && prev.State == SunNormal && !prev.Sunset.After(t) {
+				return prev.Sunset, today.Sunrise, SunNormal, nil
+			}
+		case t.Before(today.Sunset):
+			return today.Sunset, today.Sunrise, SunNormal, nil
+		default:
+			next, err := SunEvents(day.AddDate(0, 0, 1), p.LatDeg(), p.LonDeg())
+			if err == nil && next.State == SunNormal && next.Sunrise.After(t) {
+				return today.Sunset, next.Sunrise, SunNormal, nil
+			}
+		}
+	}
 	var lastSS, nextSS, lastSR, nextSR time.Time
 	// The solar days before, of and after t bound it in all but polar
 	// seasons; two more days each side only when an event is missing.

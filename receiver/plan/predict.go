@@ -27,6 +27,7 @@ type Planner struct {
 	chains   map[propagation.KHz]*chainTable
 	gainHorz []float64 // per station, G_V at the horizon
 	traps    map[trapKey]*Trap
+	sel      [][]float64 // rig response at station j when tuned to i
 }
 
 // trapKey identifies a trap design: the two frequencies and the
@@ -397,42 +398,76 @@ func (p *Planner) samplePath(s Station, spot Spot, dist float64) (propagation.Pa
 // masking finds, for each station the listener could hear, the strongest
 // other station that masks it, and the trap that would cure it.
 func (p *Planner) masking(heard []Heard) error {
-	var sigs []receiver.Signal
-	for _, h := range heard {
-		sigs = append(sigs, receiver.Signal{Name: h.Station.ID, KHz: h.Station.KHz, FieldDBuVm: h.FieldDB})
+	sel, err := p.selectivity()
+	if err != nil {
+		return err
 	}
+	// heard is in station order here (sorted by margin only afterwards).
 	for i := range heard {
 		h := &heard[i]
 		if !h.Audible {
 			continue
 		}
-		var others []receiver.Signal
-		for j, s := range sigs {
-			if j != i {
-				others = append(others, s)
+		// The worst masker: the largest shortfall below the protection
+		// ratio, counting the set's rejection (receiver.Front.Crowding's
+		// rule, with the rejections taken from the planner's table).
+		worst, short := -1, 0.0
+		for j := range heard {
+			if j == i {
+				continue
 			}
+			ratio := h.FieldDB - heard[j].FieldDB - sel[i][j]
+			if sh := receiver.UsableProtectionDB - ratio; sh > 0 && (worst < 0 || sh > short) {
+				worst, short = j, sh
+			}
+		}
+		if worst < 0 {
+			continue
+		}
+		masker := heard[worst].Station // a copy: heard is sorted later
+		h.MaskedBy = &masker
+		if masker.KHz == h.Station.KHz {
+			continue // co-channel: no trap can help
 		}
 		ct, err := p.chain(h.Station.KHz)
 		if err != nil {
 			return err
 		}
-		ms := ct.front.Crowding(sigs[i], others)
-		if len(ms) == 0 {
-			continue
-		}
-		m := ms[0]
-		for j := range heard {
-			if heard[j].Station.ID == m.Other.Name {
-				masker := heard[j].Station // a copy: heard is sorted later
-				h.MaskedBy = &masker
-			}
-		}
-		if m.Other.KHz == m.Wanted.KHz {
-			continue // co-channel: no trap can help
+		m := receiver.Masking{
+			Wanted:        receiver.Signal{Name: h.Station.ID, KHz: h.Station.KHz, FieldDBuVm: h.FieldDB},
+			Other:         receiver.Signal{Name: masker.ID, KHz: masker.KHz, FieldDBuVm: heard[worst].FieldDB},
+			SelectivityDB: sel[i][worst], RatioDB: receiver.UsableProtectionDB - short, ShortDB: short, Masks: true,
 		}
 		h.Trap = p.trap(ct.front, m)
 	}
 	return nil
+}
+
+// selectivity returns sel[i][j], the rig's response (dB) at station j's
+// carrier when tuned to station i, computed once per planner.
+func (p *Planner) selectivity() ([][]float64, error) {
+	p.mu.Lock()
+	sel := p.sel
+	p.mu.Unlock()
+	if sel != nil {
+		return sel, nil
+	}
+	n := len(p.world.Stations)
+	sel = make([][]float64, n)
+	for i, wi := range p.world.Stations {
+		ct, err := p.chain(wi.KHz)
+		if err != nil {
+			return nil, err
+		}
+		sel[i] = make([]float64, n)
+		for j, wj := range p.world.Stations {
+			sel[i][j] = ct.front.SelectivityDB(wj.KHz)
+		}
+	}
+	p.mu.Lock()
+	p.sel = sel
+	p.mu.Unlock()
+	return sel, nil
 }
 
 // trapCapsPF are the capacitors tried for a trap, common fixed values.
