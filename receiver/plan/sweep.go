@@ -82,13 +82,24 @@ type MapOptions struct {
 	// Workers is the number of goroutines (0: GOMAXPROCS). WebAssembly
 	// builds run with one.
 	Workers int
+	// RefineDB is the change of a station's attenuation (dB) across a
+	// lattice square beyond which its cells are computed exactly (0: 6 dB;
+	// the count maps hardly change between 2 and 8 dB).
+	RefineDB float64
+}
+
+func (o MapOptions) refine() float64 {
+	if o.RefineDB > 0 {
+		return o.RefineDB
+	}
+	return 6
 }
 
 // Map computes a map over box at nx×ny cells at instant t. For MapStation,
 // stationID names the station. Fields are those of Predict: ground wave by
 // Millington's method over the sampled ground, night sky wave with the
-// hourly loss factor, combined; the sky wave, which varies slowly, is
-// computed on a lattice four times coarser still.
+// hourly loss factor, combined; the sky wave is computed on a lattice
+// twice as coarse (coarser lattices put it wrong near the stations).
 func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID string, opt MapOptions, progress Progress) (*Grid, error) {
 	if err := box.Validate(); err != nil {
 		return nil, err
@@ -134,7 +145,7 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 	}
 	// Lattice of exact fields: ground on stride, sky on 4·stride.
 	lx, ly := (nx-1)/stride+2, (ny-1)/stride+2
-	skyStride := 4 * stride
+	skyStride := 2 * stride
 	sx, sy := (nx-1)/skyStride+2, (ny-1)/skyStride+2
 	ground := make([]float64, lx*ly*ns) // field less its spread
 	spread := make([]float64, lx*ly*ns) // the spread −20·log10 d
@@ -185,24 +196,71 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		close(next)
 		wg.Wait()
 	}
+	// refineDB is the change of a station's attenuation across a lattice
+	// square beyond which interpolation is not trusted.
+	const refineDB = 3.0
+	// finalRefineDB is the same test for computing a square's cells
+	// exactly (set by TestMapMatchesPredict's accuracy and the benchmark).
+	finalRefineDB := opt.refine()
 	svec := make([][3]float64, ns)
 	for k, s := range p.world.Stations {
 		svec[k] = unitVec(s.Place.LatDeg(), s.Place.LonDeg())
 	}
+	// The lattice is filled in two passes: exactly on every other node,
+	// then on the nodes between only where the coarse square around them
+	// is not smooth for that station (attenuation varying by more than
+	// refineDB); elsewhere they are interpolated from the coarse nodes.
+	exactNode := func(i, j int, buf *propagation.Path, only func(k int) bool) {
+		pl := cellPlace(float64(i*stride), float64(j*stride))
+		v := unitVec(pl.LatDeg(), pl.LonDeg())
+		for k, s := range p.world.Stations {
+			sp := spreadDB(arcKm(svec[k], v))
+			spread[(j*lx+i)*ns+k] = sp
+			if only != nil && !only(k) {
+				continue
+			}
+			g, err := p.groundAt(k, s, pl, t, buf)
+			if err != nil {
+				fail(err)
+				return
+			}
+			ground[(j*lx+i)*ns+k] = g - sp
+		}
+	}
+	coarse := func(i int) int { return min(i-i%2, lx-1-(lx-1)%2) }
+	parallel(ly, func(j int) {
+		if j%2 != 0 {
+			return
+		}
+		var buf propagation.Path
+		for i := 0; i < lx; i += 2 {
+			exactNode(i, j, &buf, nil)
+		}
+	})
 	parallel(ly, func(j int) {
 		var buf propagation.Path
 		for i := range lx {
-			pl := cellPlace(float64(i*stride), float64(j*stride))
-			v := unitVec(pl.LatDeg(), pl.LonDeg())
-			for k, s := range p.world.Stations {
-				g, err := p.groundAt(k, s, pl, t, &buf)
-				if err != nil {
-					fail(err)
-					return
+			if i%2 == 0 && j%2 == 0 {
+				continue
+			}
+			// Coarse square holding (i, j): corners (i0, j0) … (i0+2, j0+2).
+			i0, j0 := coarse(i), coarse(j)
+			if i0+2 >= lx || j0+2 >= ly {
+				exactNode(i, j, &buf, nil) // at the far edge: no coarse square
+				continue
+			}
+			smooth := func(k int) bool {
+				a, b := ground[(j0*lx+i0)*ns+k], ground[(j0*lx+i0+2)*ns+k]
+				c, d := ground[((j0+2)*lx+i0)*ns+k], ground[((j0+2)*lx+i0+2)*ns+k]
+				return math.Max(math.Max(a, b), math.Max(c, d))-math.Min(math.Min(a, b), math.Min(c, d)) <= refineDB
+			}
+			exactNode(i, j, &buf, func(k int) bool { return !smooth(k) })
+			u, w := float64(i-i0)/2, float64(j-j0)/2
+			for k := range ns {
+				if smooth(k) {
+					at := func(ii, jj int) float64 { return ground[(jj*lx+ii)*ns+k] }
+					ground[(j*lx+i)*ns+k] = (1-u)*(1-w)*at(i0, j0) + u*(1-w)*at(i0+2, j0) + (1-u)*w*at(i0, j0+2) + u*w*at(i0+2, j0+2)
 				}
-				sp := spreadDB(arcKm(svec[k], v))
-				ground[(j*lx+i)*ns+k] = g - sp
-				spread[(j*lx+i)*ns+k] = sp
 			}
 		}
 	})
@@ -222,22 +280,13 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 	if firstErr != nil {
 		return nil, firstErr
 	}
-	bilinear := func(vals []float64, w, fx, fy float64, k, s int) float64 {
-		x, y := fx/w, fy/w
-		i, j := int(x), int(y)
-		u, v := x-float64(i), y-float64(j)
-		at := func(i, j int) float64 { return vals[(j*s+i)*ns+k] }
-		return (1-u)*(1-v)*at(i, j) + u*(1-v)*at(i+1, j) + (1-u)*v*at(i, j+1) + u*v*at(i+1, j+1)
-	}
 	// The lattice holds each station's field less its inverse-distance
-	// spread. Where that changes by more than refineDB across a lattice
-	// square (across a coast, very close to the station), bilinear
+	// spread. Where that changes by more than finalRefineDB across a
+	// lattice square (across a coast, very close to the station), bilinear
 	// interpolation is not trusted: those squares are computed exactly for
-	// that station.
-	const refineDB = 3.0
-	// Where the spread itself varies by under 0.5 dB across a square (far
-	// from the station) it is interpolated with the rest, saving a distance
-	// per cell.
+	// that station. Where the spread itself varies by under 0.5 dB across a
+	// square (far from the station) it is interpolated with the rest,
+	// saving a distance per cell.
 	const (
 		sqSmooth = iota // interpolate field and spread together
 		sqSpread        // interpolate the attenuation, compute the spread
@@ -253,7 +302,7 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		for i := 0; i < lx-1; i++ {
 			for k := range ns {
 				switch {
-				case rangeOf(ground, i, j, k) > refineDB:
+				case rangeOf(ground, i, j, k) > finalRefineDB:
 					sqKind[(j*(lx-1)+i)*ns+k] = sqExact
 				case rangeOf(spread, i, j, k) > 0.5:
 					sqKind[(j*(lx-1)+i)*ns+k] = sqSpread
@@ -270,16 +319,34 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 	parallel(ny, func(iy int) {
 		fields := make([]float64, ns)
 		var buf propagation.Path
+		// Row position in the two lattices.
+		gy := float64(iy) / float64(stride)
+		gj := int(gy)
+		gv := gy - float64(gj)
+		sy := float64(iy) / float64(skyStride)
+		sj := int(sy)
+		sv := sy - float64(sj)
 		for ix := range nx {
 			var pl propagation.Place
 			placed := false
-			lat, lon := box.Cell(ix, iy, nx, ny)
-			v := unitVec(lat, lon)
+			var v [3]float64
+			vecDone := false
+			gx := float64(ix) / float64(stride)
+			gi := int(gx)
+			gu := gx - float64(gi)
+			g00, g10 := (gj*lx+gi)*ns, (gj*lx+gi+1)*ns
+			g01, g11 := ((gj+1)*lx+gi)*ns, ((gj+1)*lx+gi+1)*ns
+			sxf := float64(ix) / float64(skyStride)
+			si := int(sxf)
+			su := sxf - float64(si)
+			s00, s10 := (sj*sx+si)*ns, (sj*sx+si+1)*ns
+			s01, s11 := ((sj+1)*sx+si)*ns, ((sj+1)*sx+si+1)*ns
+			sqRow := ((iy/stride)*(lx-1) + ix/stride) * ns
 			for k, s := range p.world.Stations {
 				var gr float64
 				sq := uint8(sqExact)
 				if stride > 1 {
-					sq = sqKind[((iy/stride)*(lx-1)+ix/stride)*ns+k]
+					sq = sqKind[sqRow+k]
 				}
 				switch sq {
 				case sqExact:
@@ -292,11 +359,16 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 						return
 					}
 				case sqSpread:
-					gr = bilinear(ground, float64(stride), float64(ix), float64(iy), k, lx) + spreadDB(arcKm(svec[k], v))
+					if !vecDone {
+						lat, lon := box.Cell(ix, iy, nx, ny)
+						v, vecDone = unitVec(lat, lon), true
+					}
+					gr = (1-gu)*(1-gv)*ground[g00+k] + gu*(1-gv)*ground[g10+k] + (1-gu)*gv*ground[g01+k] + gu*gv*ground[g11+k] +
+						spreadDB(arcKm(svec[k], v))
 				default:
-					gr = bilinear(field, float64(stride), float64(ix), float64(iy), k, lx)
+					gr = (1-gu)*(1-gv)*field[g00+k] + gu*(1-gv)*field[g10+k] + (1-gu)*gv*field[g01+k] + gu*gv*field[g11+k]
 				}
-				sk := bilinear(sky, float64(skyStride), float64(ix), float64(iy), k, sx)
+				sk := (1-su)*(1-sv)*sky[s00+k] + su*(1-sv)*sky[s10+k] + (1-su)*sv*sky[s01+k] + su*sv*sky[s11+k]
 				fields[k] = propagation.PowerSumDBuVm(gr, sk)
 			}
 			g.Values[iy*nx+ix] = p.cellValue(kind, sel, fields, cts)
