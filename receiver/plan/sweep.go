@@ -364,6 +364,41 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		spread[i] += ground[i]
 	}
 	field := spread
+	// For a count map, a station whose field over a smooth square is
+	// bounded wholly above or wholly below its weakest audible field (the
+	// bilinear interpolants lie between their corner values, and the
+	// power sum is monotone) is counted, or not, without visiting the
+	// square's cells.
+	var decided []int8 // per (square, station): +1 audible, −1 not, 0 look
+	if kind == MapCount && stride > 1 {
+		decided = make([]int8, len(sqKind))
+		for j := 0; j < ly-1; j++ {
+			for i := 0; i < lx-1; i++ {
+				// The sky square holding this ground square (skyStride = 2·stride).
+				si, sj := i/2, j/2
+				for k := range ns {
+					q := (j*(lx-1)+i)*ns + k
+					if sqKind[q] != sqSmooth {
+						continue
+					}
+					gmin, gmax := math.Inf(1), math.Inf(-1)
+					for _, n := range [4]int{(j*lx + i) * ns, (j*lx + i + 1) * ns, ((j+1)*lx + i) * ns, ((j+1)*lx + i + 1) * ns} {
+						gmin, gmax = math.Min(gmin, field[n+k]), math.Max(gmax, field[n+k])
+					}
+					smin, smax := math.Inf(1), math.Inf(-1)
+					for _, n := range [4]int{(sj*sx + si) * ns, (sj*sx + si + 1) * ns, ((sj+1)*sx + si) * ns, ((sj+1)*sx + si + 1) * ns} {
+						smin, smax = math.Min(smin, sky[n+k]), math.Max(smax, sky[n+k])
+					}
+					switch m := cts[k].minDBuVm; {
+					case propagation.PowerSumDBuVm(gmax, smax) < m-0.01:
+						decided[q] = -1
+					case propagation.PowerSumDBuVm(gmin, smin) >= m+0.01:
+						decided[q] = 1
+					}
+				}
+			}
+		}
+	}
 	g := &Grid{Box: box, NX: nx, NY: ny, Kind: kind, StationID: stationID, At: t, Values: make([]float64, nx*ny)}
 	parallel(ny, func(iy int) {
 		fields := make([]float64, ns)
@@ -391,7 +426,15 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 			s00, s10 := (sj*sx+si)*ns, (sj*sx+si+1)*ns
 			s01, s11 := ((sj+1)*sx+si)*ns, ((sj+1)*sx+si+1)*ns
 			sqRow := ((iy/stride)*(lx-1) + ix/stride) * ns
+			known := 0 // stations counted without looking at this cell
 			for k, s := range p.world.Stations {
+				if decided != nil && decided[sqRow+k] != 0 {
+					if decided[sqRow+k] > 0 {
+						known++
+					}
+					fields[k] = math.Inf(-1)
+					continue
+				}
 				var gr float64
 				sq := uint8(sqExact)
 				if stride > 1 {
@@ -420,7 +463,7 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 				sk := (1-su)*(1-sv)*sky[s00+k] + su*(1-sv)*sky[s10+k] + (1-su)*sv*sky[s01+k] + su*sv*sky[s11+k]
 				fields[k] = propagation.PowerSumDBuVm(gr, sk)
 			}
-			g.Values[iy*nx+ix] = p.cellValue(kind, sel, fields, cts)
+			g.Values[iy*nx+ix] = p.cellValue(kind, sel, fields, cts) + float64(known)
 		}
 	})
 	if firstErr != nil {
