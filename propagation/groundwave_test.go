@@ -305,6 +305,15 @@ func TestValidation(t *testing.T) {
 			t.Errorf("%s: got %v, warnings %v, error %v; want a result and a warning", c.name, e, warn, err)
 		}
 	}
+	// Within a wavelength (300 m at 1 MHz) the far-field ground wave is
+	// incomplete: a warning (Norton 1937: the induction and static terms
+	// fall as 1/d² and 1/d³).
+	if _, warn, _ := cc.PathFieldDBuVm(tx, Path{{0.2, sea}}); len(warn) == 0 {
+		t.Errorf("200 m from a 1 MHz transmitter: no warning")
+	}
+	if _, warn, _ := cc.PathFieldDBuVm(tx, Path{{2, sea}}); len(warn) != 0 {
+		t.Errorf("2 km from a 1 MHz transmitter: warnings %v", warn)
+	}
 	if _, _, err := cc.PathFieldDBuVm(Transmitter{Freq: 1000, PowerKW: 0}, Path{{10, sea}}); err == nil {
 		t.Errorf("zero power: no error")
 	}

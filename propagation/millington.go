@@ -167,6 +167,11 @@ func pathField(tx Transmitter, p Path, curveFor func(Ground) (FieldCurve, error)
 		return 0, nil, err
 	}
 	warn = append(warn, pw...)
+	if lambdaKm := tx.Freq.WavelengthMetres() / 1e3; p.LengthKm() < lambdaKm {
+		warn = append(warn, Warning{"distance", fmt.Sprintf(
+			"%.3g km is within one wavelength (%.3g km) of the transmitter, where the induction field (not modelled) adds to the radiated ground wave",
+			p.LengthKm(), lambdaKm)})
+	}
 	var buf [8]FieldCurve // most paths have few segments: no allocation
 	curves := buf[:0]
 	for _, s := range p {
