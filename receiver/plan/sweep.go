@@ -364,36 +364,49 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		spread[i] += ground[i]
 	}
 	field := spread
-	// For a count map, a station whose field over a smooth square is
-	// bounded wholly above or wholly below its weakest audible field (the
-	// bilinear interpolants lie between their corner values, and the
-	// power sum is monotone) is counted, or not, without visiting the
-	// square's cells.
-	var decided []int8 // per (square, station): +1 audible, −1 not, 0 look
+	// For a count map over smooth squares, each station's margin over its
+	// weakest audible field (total field less threshold) is taken at the
+	// square's corners and interpolated bilinearly to the cells; where all
+	// four corners agree the square is counted, or not, whole (a bilinear
+	// interpolant lies between its corner values).
+	var decided []int8       // per (square, station): +1 audible, −1 not, 0 look, 2 not smooth
+	var cornerM [][4]float64 // per (square, station): corner margins, for "look"
 	if kind == MapCount && stride > 1 {
 		decided = make([]int8, len(sqKind))
+		cornerM = make([][4]float64, len(sqKind))
+		skyAtNode := func(i, j, k int) float64 {
+			// Ground-lattice node (i, j) on the sky lattice (skyStride = 2·stride).
+			fx, fy := float64(i)/2, float64(j)/2
+			si, sj := min(int(fx), sx-2), min(int(fy), sy-2)
+			u, v := fx-float64(si), fy-float64(sj)
+			at := func(a, b int) float64 { return sky[(b*sx+a)*ns+k] }
+			return (1-u)*(1-v)*at(si, sj) + u*(1-v)*at(si+1, sj) + (1-u)*v*at(si, sj+1) + u*v*at(si+1, sj+1)
+		}
+		total := make([]float64, lx*ly*ns)
+		for j := range ly {
+			for i := range lx {
+				for k := range ns {
+					n := (j*lx+i)*ns + k
+					total[n] = propagation.PowerSumDBuVm(field[n], skyAtNode(i, j, k)) - cts[k].minDBuVm
+				}
+			}
+		}
 		for j := 0; j < ly-1; j++ {
 			for i := 0; i < lx-1; i++ {
-				// The sky square holding this ground square (skyStride = 2·stride).
-				si, sj := i/2, j/2
 				for k := range ns {
 					q := (j*(lx-1)+i)*ns + k
 					if sqKind[q] != sqSmooth {
+						decided[q] = 2
 						continue
 					}
-					gmin, gmax := math.Inf(1), math.Inf(-1)
-					for _, n := range [4]int{(j*lx + i) * ns, (j*lx + i + 1) * ns, ((j+1)*lx + i) * ns, ((j+1)*lx + i + 1) * ns} {
-						gmin, gmax = math.Min(gmin, field[n+k]), math.Max(gmax, field[n+k])
-					}
-					smin, smax := math.Inf(1), math.Inf(-1)
-					for _, n := range [4]int{(sj*sx + si) * ns, (sj*sx + si + 1) * ns, ((sj+1)*sx + si) * ns, ((sj+1)*sx + si + 1) * ns} {
-						smin, smax = math.Min(smin, sky[n+k]), math.Max(smax, sky[n+k])
-					}
-					switch m := cts[k].minDBuVm; {
-					case propagation.PowerSumDBuVm(gmax, smax) < m-0.01:
-						decided[q] = -1
-					case propagation.PowerSumDBuVm(gmin, smin) >= m+0.01:
+					c := [4]float64{total[(j*lx+i)*ns+k], total[(j*lx+i+1)*ns+k], total[((j+1)*lx+i)*ns+k], total[((j+1)*lx+i+1)*ns+k]}
+					switch {
+					case c[0] >= 0 && c[1] >= 0 && c[2] >= 0 && c[3] >= 0:
 						decided[q] = 1
+					case c[0] < 0 && c[1] < 0 && c[2] < 0 && c[3] < 0:
+						decided[q] = -1
+					default:
+						cornerM[q] = c
 					}
 				}
 			}
@@ -426,11 +439,17 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 			s00, s10 := (sj*sx+si)*ns, (sj*sx+si+1)*ns
 			s01, s11 := ((sj+1)*sx+si)*ns, ((sj+1)*sx+si+1)*ns
 			sqRow := ((iy/stride)*(lx-1) + ix/stride) * ns
-			known := 0 // stations counted without looking at this cell
+			known := 0 // stations counted without computing their field here
 			for k, s := range p.world.Stations {
-				if decided != nil && decided[sqRow+k] != 0 {
-					if decided[sqRow+k] > 0 {
+				if decided != nil && decided[sqRow+k] != 2 {
+					switch decided[sqRow+k] {
+					case 1:
 						known++
+					case 0:
+						c := cornerM[sqRow+k]
+						if (1-gu)*(1-gv)*c[0]+gu*(1-gv)*c[1]+(1-gu)*gv*c[2]+gu*gv*c[3] >= 0 {
+							known++
+						}
 					}
 					fields[k] = math.Inf(-1)
 					continue
