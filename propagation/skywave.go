@@ -180,6 +180,11 @@ type SkyWave struct {
 
 // Validate checks a sky-wave path.
 func (sp SkyPath) Validate() ([]Warning, error) {
+	return sp.validate(DistanceKm(sp.Tx, sp.Rx))
+}
+
+// validate is Validate with the path length already known.
+func (sp SkyPath) validate(d float64) ([]Warning, error) {
 	var warn []Warning
 	if err := checkFinite("frequency", float64(sp.Freq), "kHz"); err != nil {
 		return nil, err
@@ -208,7 +213,6 @@ func (sp SkyPath) Validate() ([]Warning, error) {
 	if sp.CoastalTerminals < 0 || sp.CoastalTerminals > 2 {
 		return nil, &InputError{Field: "coastal terminals", Value: float64(sp.CoastalTerminals), Want: "0, 1 or 2"}
 	}
-	d := DistanceKm(sp.Tx, sp.Rx)
 	if d < 1e-3 {
 		return nil, &InputError{Field: "distance", Value: d, Unit: "km", Want: ">= 0.001 (transmitter and receiver apart)"}
 	}
@@ -242,13 +246,14 @@ func (sp SkyPath) Validate() ([]Warning, error) {
 // Reference: Rec. ITU-R P.1147-4 eq. (1) and §§2.2–2.8 (structure verified,
 // sub-formulas from memory: methods.md §2.2).
 func NightSkyWave(sp SkyPath) (SkyWave, error) {
-	warn, err := sp.Validate()
+	d := DistanceKm(sp.Tx, sp.Rx)
+	warn, err := sp.validate(d)
 	if err != nil {
 		return SkyWave{}, err
 	}
 	var s SkyWave
 	s.Warnings = warn
-	s.DistKm = DistanceKm(sp.Tx, sp.Rx)
+	s.DistKm = d
 	s.SlantKm = SlantDistanceKm(s.DistKm)
 	mid := Midpoint(sp.Tx, sp.Rx)
 	s.GeomagLatDeg = GeomagneticLatitudeDeg(mid)
@@ -280,7 +285,7 @@ func NightSkyWave(sp SkyPath) (SkyWave, error) {
 	s.MedianDBuVm = v + s.SeaGainDB - s.PolLossDB + a - 20*math.Log10(s.SlantKm) - s.KR*s.SlantKm/1000 - s.SolarLossDB
 	s.DecileSpread = DecileSpreadDB(s.GeomagLatDeg)
 	s.DecileDBuVm = s.MedianDBuVm + s.DecileSpread
-	s.ReceiveCorrDB = VerticalWireCorrectionDB(s.DistKm)
+	s.ReceiveCorrDB = verticalWireCorrection(s.TakeoffDeg)
 	return s, nil
 }
 
@@ -298,16 +303,22 @@ func NightSkyWave(sp SkyPath) (SkyWave, error) {
 //
 // Reference: shared/reference/methods.md §2.3 [D].
 func VerticalWireCorrectionDB(distKm float64) float64 {
-	c := math.Cos(TakeoffAngleDeg(distKm) * math.Pi / 180)
-	return math.Max(-60, 20*math.Log10(c))
+	return verticalWireCorrection(TakeoffAngleDeg(distKm))
 }
+
+// verticalWireCorrection is VerticalWireCorrectionDB for an arrival angle.
+func verticalWireCorrection(thetaDeg float64) float64 {
+	return math.Max(-60, 20*math.Log10(math.Cos(thetaDeg*math.Pi/180)))
+}
+
+// geomagneticPolePlace is the centred-dipole pole as a Place.
+var geomagneticPolePlace = Place{latDeg: GeomagneticPoleLatDeg, lonDeg: GeomagneticPoleLonDeg}
 
 // polarisationLossPath sums PolarisationLossDB over both terminals, with
 // the centred-dipole dip and the magnetic east–west direction taken
 // perpendicular to the great-circle bearing towards the geomagnetic pole
 // (methods.md §2.2 [D]).
 func polarisationLossPath(tx, rx Place) float64 {
-	pole, _ := NewPlace(GeomagneticPoleLatDeg, GeomagneticPoleLonDeg)
 	var total float64
 	for _, end := range [2][2]Place{{tx, rx}, {rx, tx}} {
 		p, other := end[0], end[1]
@@ -315,7 +326,7 @@ func polarisationLossPath(tx, rx Place) float64 {
 		if math.Abs(dip) > 45 {
 			continue
 		}
-		toPole := InitialBearingDeg(p, pole)
+		toPole := InitialBearingDeg(p, geomagneticPolePlace)
 		path := InitialBearingDeg(p, other)
 		// Angle between the path and the magnetic meridian, folded to 0–90°;
 		// its complement is the azimuth from magnetic east–west.

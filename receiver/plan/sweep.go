@@ -545,10 +545,11 @@ func (p *Planner) cellValue(kind MapKind, sel int, fields []float64, cts []*chai
 // groundAt returns station k's ground-wave field at pl, sampling the
 // path into *buf (reused between calls by one goroutine).
 func (p *Planner) groundAt(k int, s Station, pl propagation.Place, t time.Time, buf *propagation.Path) (float64, error) {
-	d := math.Max(propagation.DistanceKm(s.Place, pl), 0.05)
+	d0 := propagation.DistanceKm(s.Place, pl)
+	d := math.Max(d0, 0.05)
 	var path propagation.Path
 	var err error
-	if propagation.DistanceKm(s.Place, pl) < 0.05 {
+	if d0 < 0.05 {
 		path = propagation.Path{{LengthKm: d, Ground: p.world.Ground(s.Place.LatDeg(), s.Place.LonDeg())}}
 	} else {
 		path, err = propagation.AppendSamplePath(*buf, p.world.Ground, s.Place, pl, pathStepKm(d))
