@@ -158,7 +158,9 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		pl, _ := propagation.NewPlace(math.Max(-90, math.Min(90, lat)), math.Max(-180, math.Min(180, lon)))
 		return pl
 	}
-	total := ly + sy + ny
+	// Steps: coarse and fine lattice rows, hourly-loss rows (at most sy),
+	// sky rows, exact-square chunks (at most 64), map rows.
+	total := 2*ly + 2*sy + 64 + ny
 	var done int
 	var progMu sync.Mutex
 	step := func() {
@@ -167,7 +169,7 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		}
 		progMu.Lock()
 		done++
-		progress(done, total)
+		progress(min(done, total), total)
 		progMu.Unlock()
 	}
 	var firstErr error
@@ -359,6 +361,64 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 			}
 		}
 	}
+	// Squares marked exact are first sampled on a 3×3 sub-lattice (the
+	// corners plus five points at half stride); each quarter whose
+	// attenuation still changes by more than finalRefineDB is then computed
+	// cell by cell, the others interpolated like the lattice.
+	type subLattice struct {
+		a      [3][3]float64 // attenuation (field less spread) at the sub-lattice
+		smooth [2][2]bool
+	}
+	var subs map[int]*subLattice
+	if stride >= 4 && stride%2 == 0 {
+		var todo []int
+		for q, kd := range sqKind {
+			if kd == sqExact {
+				todo = append(todo, q)
+			}
+		}
+		subs = make(map[int]*subLattice, len(todo))
+		results := make([]*subLattice, len(todo))
+		half := stride / 2
+		chunk := (len(todo) + 63) / 64
+		parallel((len(todo)+chunk-1)/max(chunk, 1), func(c int) {
+			var buf propagation.Path
+			for n := c * chunk; n < min(len(todo), (c+1)*chunk); n++ {
+				q := todo[n]
+				k := q % ns
+				sqi := q / ns
+				i, j := sqi%(lx-1), sqi/(lx-1)
+				sl := &subLattice{}
+				for b := range 3 {
+					for a := range 3 {
+						if a%2 == 0 && b%2 == 0 {
+							sl.a[b][a] = ground[((j+b/2)*lx+i+a/2)*ns+k]
+							continue
+						}
+						cx, cy := i*stride+a*half, j*stride+b*half
+						pl := cellPlace(float64(cx), float64(cy))
+						g, err := p.groundAt(k, p.world.Stations[k], pl, t, &buf)
+						if err != nil {
+							fail(err)
+							return
+						}
+						sl.a[b][a] = g - spreadDB(arcKm(svec[k], unitVec(pl.LatDeg(), pl.LonDeg())))
+					}
+				}
+				for b := range 2 {
+					for a := range 2 {
+						v := [4]float64{sl.a[b][a], sl.a[b][a+1], sl.a[b+1][a], sl.a[b+1][a+1]}
+						sl.smooth[b][a] = math.Max(math.Max(v[0], v[1]), math.Max(v[2], v[3]))-
+							math.Min(math.Min(v[0], v[1]), math.Min(v[2], v[3])) <= finalRefineDB
+					}
+				}
+				results[n] = sl
+			}
+		})
+		for n, q := range todo {
+			subs[q] = results[n]
+		}
+	}
 	// Field (attenuation + spread) at the lattice nodes, for sqSmooth.
 	for i := range ground {
 		spread[i] += ground[i]
@@ -461,6 +521,21 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 				}
 				switch sq {
 				case sqExact:
+					if sl := subs[sqRow+k]; sl != nil {
+						half := float64(stride / 2)
+						ox, oy := float64(ix%stride)/half, float64(iy%stride)/half
+						a, b := int(ox), int(oy)
+						if sl.smooth[b][a] {
+							u, w := ox-float64(a), oy-float64(b)
+							if !vecDone {
+								lat, lon := box.Cell(ix, iy, nx, ny)
+								v, vecDone = unitVec(lat, lon), true
+							}
+							gr = (1-u)*(1-w)*sl.a[b][a] + u*(1-w)*sl.a[b][a+1] + (1-u)*w*sl.a[b+1][a] + u*w*sl.a[b+1][a+1] +
+								spreadDB(arcKm(svec[k], v))
+							break
+						}
+					}
 					if !placed {
 						pl, placed = cellPlace(float64(ix), float64(iy)), true
 					}
