@@ -131,6 +131,14 @@ func (cc *CurveCache) Curve(f KHz, g Ground) (*Curve, error) {
 	return c, nil
 }
 
+// Has reports whether the curve for f and g is already computed.
+func (cc *CurveCache) Has(f KHz, g Ground) bool {
+	cc.mu.Lock()
+	defer cc.mu.Unlock()
+	_, ok := cc.curves[curveKey{f, g}]
+	return ok
+}
+
 // Len returns the number of cached curves.
 func (cc *CurveCache) Len() int {
 	cc.mu.Lock()

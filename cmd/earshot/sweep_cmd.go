@@ -70,7 +70,7 @@ func runSweep(args []string, stdout, stderr io.Writer) int {
 				return report("sweep", err, stderr)
 			}
 		}
-		day, night := dayAndNight(l.at, spot)
+		day, night := plan.DayAndNight(l.at, spot)
 		progress, finish := progressTo(stderr, "wire sweep")
 		rows, err := l.planner.WireSweep(spot, ls, hs, day, night, progress)
 		finish()
@@ -152,14 +152,6 @@ func runSweep(args []string, stdout, stderr io.Writer) int {
 
 // WireCount is the day and night counts of one wire length.
 type WireCount struct{ day, night int }
-
-// dayAndNight returns local noon and local midnight (mean solar time at
-// the spot) on the date of t.
-func dayAndNight(t time.Time, spot plan.Spot) (time.Time, time.Time) {
-	off := time.Duration(-spot.Place.LonDeg() / 15 * float64(time.Hour))
-	d := time.Date(t.Year(), t.Month(), t.Day(), 12, 0, 0, 0, time.UTC).Add(off)
-	return d, d.Add(12 * time.Hour)
-}
 
 func floatList(flagName, s string, lo, hi float64) ([]float64, error) {
 	var out []float64
