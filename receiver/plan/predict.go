@@ -146,9 +146,11 @@ func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
 		return ct, nil
 	}
 	ct = &chainTable{lo: tableLoDBuVm, step: tableStepDBuVm}
+	var firstErr error
 	for e := tableLoDBuVm; e <= tableHiDBuVm+1e-9; e += tableStepDBuVm {
 		rc, err := p.rig.Receive(f, e)
 		if err != nil {
+			firstErr = err
 			break // beyond the detector model's range: the table ends here
 		}
 		if len(ct.marginDB) == 0 {
@@ -163,7 +165,14 @@ func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
 		ct.ampSNR = append(ct.ampSNR, amp)
 	}
 	if len(ct.marginDB) < 5 {
-		return nil, fmt.Errorf("plan: the rig cannot be evaluated at %g kHz", float64(f))
+		// The rig cannot follow this frequency at all (for example a wire
+		// near half a wavelength long, whose loading no coil provides):
+		// nothing is heard on it.
+		ct = deadChain(f, firstErr)
+		p.mu.Lock()
+		p.chains[f] = ct
+		p.mu.Unlock()
+		return ct, nil
 	}
 	xs := make([]float64, len(ct.marginDB))
 	for i := range xs {
@@ -186,6 +195,29 @@ func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
 	p.mu.Unlock()
 	return ct, nil
 }
+
+// deadChain is the table of a frequency the rig cannot receive: no field
+// is audible (minDBuVm = +Inf) and the limit says why.
+func deadChain(f propagation.KHz, why error) *chainTable {
+	ct := &chainTable{lo: tableLoDBuVm, step: tableStepDBuVm, minDBuVm: math.Inf(1), front: receiver.Front{KHz: f}}
+	ct.limit = "the rig cannot be tuned here"
+	if why != nil {
+		ct.limit += ": " + why.Error()
+	}
+	var xs []float64
+	for e := tableLoDBuVm; e <= tableHiDBuVm+1e-9; e += tableStepDBuVm {
+		xs = append(xs, e)
+		ct.marginDB = append(ct.marginDB, noMarginDB)
+		ct.ampSNR = append(ct.ampSNR, noMarginDB)
+	}
+	if err := ct.spline.Fit(xs, ct.marginDB); err != nil {
+		panic("plan: " + err.Error()) // a constant table always fits
+	}
+	return ct
+}
+
+// noMarginDB is the margin and S/N of a station the rig cannot receive.
+const noMarginDB = -200.0
 
 func (p *Planner) modulation() float64 {
 	if p.spec.Modulation > 0 {

@@ -1,6 +1,7 @@
 package plan
 
 import (
+	"earshot/receiver"
 	"math/rand/v2"
 	"slices"
 	"testing"
@@ -120,6 +121,46 @@ func TestWireLengthsM(t *testing.T) {
 	} {
 		if got := WireLengthsM(c.current); !slices.Equal(got, c.want) {
 			t.Errorf("WireLengthsM(%g) = %v, want %v", c.current, got, c.want)
+		}
+	}
+}
+
+// TestUntunableStation: with 100 m of wire 10 m up (110 m in all, about
+// half a wavelength at 1368 kHz, where the antenna's reactance is far
+// beyond any loading coil: a wire near λ/2 is a high-impedance load, common
+// practice), the station at 1368 kHz is reported as not receivable while
+// the rest of the prediction goes on.
+func TestUntunableStation(t *testing.T) {
+	stations := []Station{
+		{ID: "A", KHz: 1368, KWDay: 10, Place: place(t, 45, 10.5)},
+		{ID: "B", KHz: 700, KWDay: 10, Place: place(t, 45, 10.6)},
+	}
+	spec := receiver.DefaultRigSpec()
+	spec.WireM = 100
+	if _, err := spec.Build(); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := func() (float64, error) { r, _ := spec.Build(); return r.MinAudibleDBuVm(1368) }(); err == nil {
+		t.Skip("this rig receives 1368 kHz after all; the case needs another frequency")
+	}
+	p, err := NewPlanner(coastWorld(stations), spec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pr, err := p.Predict(Spot{"s", place(t, 45, 10.2)}, noon)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, h := range pr.Heard {
+		switch h.Station.ID {
+		case "A":
+			if h.Audible || h.Chance != 0 || h.Verdict != "cannot be tuned with this rig" {
+				t.Errorf("A: audible %v chance %g verdict %q", h.Audible, h.Chance, h.Verdict)
+			}
+		case "B":
+			if !h.Audible {
+				t.Errorf("B (10 kW, 30 km): not audible, verdict %q", h.Verdict)
+			}
 		}
 	}
 }

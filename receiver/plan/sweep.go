@@ -672,6 +672,20 @@ func (p *Planner) WithRig(spec receiver.RigSpec) (*Planner, error) {
 	return q, nil
 }
 
+// SpecWithWire returns spec with the wire length and height changed; a
+// down-lead that no longer fits (shorter than the height or longer than
+// twice it) becomes a plain vertical drop of the new height.
+func SpecWithWire(spec receiver.RigSpec, wireM, heightM float64) receiver.RigSpec {
+	spec.WireM, spec.HeightM = wireM, heightM
+	if spec.DownleadM > 2*heightM || spec.DownleadM < heightM {
+		spec.DownleadM = heightM
+	}
+	return spec
+}
+
+// Spec returns the planner's rig as specified.
+func (p *Planner) Spec() receiver.RigSpec { return p.spec }
+
 // WireRow is one wire length of an antenna sweep.
 type WireRow struct {
 	WireM, HeightM     float64
@@ -688,12 +702,7 @@ func (p *Planner) WireSweep(spot Spot, lengthsM, heightsM []float64, day, night 
 	total, done := len(lengthsM)*len(heightsM), 0
 	for _, h := range heightsM {
 		for _, l := range lengthsM {
-			spec := p.spec
-			spec.WireM, spec.HeightM = l, h
-			if spec.DownleadM > 2*h || spec.DownleadM < h {
-				spec.DownleadM = h
-			}
-			q, err := p.WithRig(spec)
+			q, err := p.WithRig(SpecWithWire(p.spec, l, h))
 			if err != nil {
 				return nil, fmt.Errorf("wire %g m at %g m: %w", l, h, err)
 			}

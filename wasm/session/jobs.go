@@ -1,0 +1,286 @@
+package session
+
+import (
+	"math"
+	"time"
+
+	"earshot/propagation"
+	"earshot/receiver/plan"
+)
+
+// Overlay rows are computed in bands of this many rows (one plan.Map call
+// each: a few milliseconds of WebAssembly per band at 128 columns).
+const overlayBandRows = 4
+
+// overlayJob computes the count map over the visible box: a coarse grid in
+// one piece, then the full grid band by band.
+type overlayJob struct {
+	enabled    bool
+	box        plan.BBox
+	cols, rows int
+	shown      *plan.Grid // the last complete grid
+	work       *plan.Grid // the grid being filled, row by row
+	workRow    int
+	level      int // 0 coarse, 1 full, 2 complete
+	err        error
+	at         time.Time // the instant of the grids
+}
+
+// overlayRetime is how far the clock may move before the overlay is
+// computed again (the sky wave changes slowly but for twilight).
+const overlayRetime = 15 * time.Minute
+
+func (o *overlayJob) restart() {
+	if o.cols == 0 {
+		return
+	}
+	o.shown, o.work, o.workRow, o.level, o.err = nil, nil, 0, 0, nil
+}
+
+func (o *overlayJob) pending(s *Session) bool {
+	if !o.enabled || o.cols == 0 {
+		return false
+	}
+	if o.level > 0 && (s.at.Sub(o.at) >= overlayRetime || o.at.Sub(s.at) >= overlayRetime) {
+		o.restart()
+	}
+	return o.level < 2 && o.err == nil
+}
+
+// SetOverlay asks for the count overlay over box at cols×rows cells (the
+// app passes the visible map), or turns it off with enabled false. The box
+// is clipped to valid latitudes and longitudes. A different box or size
+// restarts it.
+func (s *Session) SetOverlay(enabled bool, box plan.BBox, cols, rows int) {
+	o := &s.overlay
+	o.enabled = enabled
+	box.MinLat, box.MaxLat = math.Max(-89.9, box.MinLat), math.Min(89.9, box.MaxLat)
+	box.MinLon, box.MaxLon = math.Max(-180, box.MinLon), math.Min(180, box.MaxLon)
+	cols, rows = max(cols, 8), max(rows, 8)
+	if box == o.box && cols == o.cols && rows == o.rows {
+		return
+	}
+	o.box, o.cols, o.rows = box, cols, rows
+	o.restart()
+}
+
+// OverlayState is what the overlay has to show.
+type OverlayState struct {
+	Enabled bool
+	Shown   *plan.Grid // complete grid (coarse or full), nil at first
+	Work    *plan.Grid // full grid being filled, rows < WorkRows valid
+	Rows    int
+	Err     error
+	Done    bool
+}
+
+// Overlay returns the overlay's state.
+func (s *Session) Overlay() OverlayState {
+	o := &s.overlay
+	return OverlayState{Enabled: o.enabled, Shown: o.shown, Work: o.work, Rows: o.workRow, Err: o.err, Done: o.level == 2}
+}
+
+func (o *overlayJob) step(s *Session, more Budget) (Progress, bool) {
+	if o.box.Validate() != nil {
+		o.err = o.box.Validate()
+		return Progress{}, true
+	}
+	for more() {
+		if o.level == 0 {
+			o.at = s.at
+			g, err := s.planner.Map(o.box, max(o.cols/4, 2), max(o.rows/4, 2), s.at, plan.MapCount, "", plan.MapOptions{Workers: 1}, nil)
+			if err != nil {
+				o.err = err
+				return Progress{}, true
+			}
+			o.shown, o.level = g, 1
+			o.work = &plan.Grid{Box: o.box, NX: o.cols, NY: o.rows, Kind: plan.MapCount, At: o.at, Values: make([]float64, o.cols*o.rows)}
+			continue
+		}
+		r0 := o.workRow
+		r1 := min(r0+overlayBandRows, o.rows)
+		if r1-r0 < 2 { // plan.Map needs two rows: redo the last one
+			r0 = r1 - 2
+		}
+		dLat := (o.box.MaxLat - o.box.MinLat) / float64(o.rows)
+		band := plan.BBox{MinLat: o.box.MaxLat - float64(r1)*dLat, MaxLat: o.box.MaxLat - float64(r0)*dLat, MinLon: o.box.MinLon, MaxLon: o.box.MaxLon}
+		g, err := s.planner.Map(band, o.cols, r1-r0, o.at, plan.MapCount, "", plan.MapOptions{Workers: 1}, nil)
+		if err != nil {
+			o.err = err
+			return Progress{}, true
+		}
+		copy(o.work.Values[r0*o.cols:r1*o.cols], g.Values)
+		o.workRow = r1
+		if r1 == o.rows {
+			o.shown, o.work, o.level = o.work, nil, 2
+			return Progress{}, true
+		}
+	}
+	return Progress{Job: JobOverlay, Done: float64(o.workRow) / float64(o.rows)}, false
+}
+
+// wireJob counts the audible stations by day and at night for each wire
+// length of plan.WireLengthsM at the current spot, height and rig.
+type wireJob struct {
+	stale      bool
+	lengthsM   []float64
+	heightM    float64
+	day, night []int // −1: not yet known; −2: that rig cannot be built
+	i          int
+	q          *plan.Planner
+	dayAt      time.Time // local noon of the sweep's day
+}
+
+func (w *wireJob) pending(s *Session) bool {
+	if day, _ := plan.DayAndNight(s.at, s.spot); !day.Equal(w.dayAt) {
+		w.stale = true
+	}
+	return w.stale || w.i < len(w.lengthsM)
+}
+
+// Wire returns the wire sweep so far: lengths (m) and day and night
+// counts (−1 where not yet known, −2 where that rig is invalid).
+func (s *Session) Wire() (lengthsM []float64, day, night []int, done bool) {
+	w := &s.wire
+	return w.lengthsM, w.day, w.night, !w.pending(s)
+}
+
+func (w *wireJob) step(s *Session, more Budget) (Progress, bool) {
+	if w.stale {
+		w.stale, w.i, w.q = false, 0, nil
+		w.lengthsM = plan.WireLengthsM(s.planner.Spec().WireM)
+		w.heightM = s.planner.Spec().HeightM
+		w.dayAt, _ = plan.DayAndNight(s.at, s.spot)
+		w.day, w.night = make([]int, len(w.lengthsM)), make([]int, len(w.lengthsM))
+		for i := range w.day {
+			w.day[i], w.night[i] = -1, -1
+		}
+	}
+	for w.i < len(w.lengthsM) {
+		if w.q == nil {
+			spec := plan.SpecWithWire(s.planner.Spec(), w.lengthsM[w.i], w.heightM)
+			if spec == s.planner.Spec() {
+				w.q = s.planner
+			} else if q, err := s.planner.WithRig(spec); err == nil {
+				w.q = q
+			} else {
+				w.day[w.i], w.night[w.i] = -2, -2
+				w.i++
+				continue
+			}
+		}
+		done, err := w.q.Prepare(s.spot, more)
+		if err != nil {
+			w.day[w.i], w.night[w.i] = -2, -2
+			w.i, w.q = w.i+1, nil
+			continue
+		}
+		if !done {
+			break
+		}
+		day, night := w.dayAt, w.dayAt.Add(12*time.Hour)
+		for _, c := range []struct {
+			at  time.Time
+			out *int
+		}{{day, &w.day[w.i]}, {night, &w.night[w.i]}} {
+			pr, err := w.q.Predict(s.spot, c.at)
+			if err != nil {
+				*c.out = -2
+				continue
+			}
+			*c.out = pr.Audible()
+		}
+		w.i, w.q = w.i+1, nil
+		if !more() {
+			break
+		}
+	}
+	if w.i == len(w.lengthsM) {
+		return Progress{}, true
+	}
+	return Progress{Job: JobWire, Done: float64(w.i) / float64(len(w.lengthsM))}, false
+}
+
+// DayPoints is the number of points of the selected station's day plot
+// (every half hour, both midnights included).
+const DayPoints = 49
+
+// hourJob follows the selected station's field through the local day.
+type hourJob struct {
+	stale bool
+	id    string
+	day   Day
+	i     int
+}
+
+// Day is the selected station's field through one day at the spot, from
+// local (mean solar) midnight to midnight.
+type Day struct {
+	StationID string
+	Start     time.Time // local mean midnight, UTC instant
+	At        []time.Time
+	// Fields in dB(µV/m) at each instant; NaN where not yet computed. Sky
+	// is NaN where there is no sky wave (day). MinDBuVm is the rig's
+	// weakest audible field (+Inf where the rig cannot tune the station).
+	FieldDB, GroundDB, SkyDB, MinDBuVm []float64
+	Sun                                propagation.SunDay
+	Done                               bool
+}
+
+func (h *hourJob) pending(s *Session) bool {
+	if s.selected == "" {
+		return false
+	}
+	if _, night := plan.DayAndNight(s.at, s.spot); !night.Add(-24 * time.Hour).Equal(h.day.Start) {
+		h.stale = true
+	}
+	return h.stale || h.id != s.selected || !h.day.Done
+}
+
+// Day returns the selected station's day so far (Done when complete).
+func (s *Session) Day() Day { return s.hours.day }
+
+func (h *hourJob) step(s *Session, more Budget) (Progress, bool) {
+	if h.stale || h.id != s.selected {
+		h.stale, h.id, h.i = false, s.selected, 0
+		_, night := plan.DayAndNight(s.at, s.spot)
+		start := night.Add(-24 * time.Hour)
+		d := Day{StationID: s.selected, Start: start}
+		for i := range DayPoints {
+			d.At = append(d.At, start.Add(time.Duration(i)*30*time.Minute))
+			d.FieldDB = append(d.FieldDB, math.NaN())
+			d.GroundDB = append(d.GroundDB, math.NaN())
+			d.SkyDB = append(d.SkyDB, math.NaN())
+			d.MinDBuVm = append(d.MinDBuVm, math.NaN())
+		}
+		d.Sun, _ = propagation.SunEvents(start.Add(12*time.Hour), s.spot.Place.LatDeg(), s.spot.Place.LonDeg())
+		h.day = d
+	}
+	if s.predBusy {
+		return Progress{Job: JobHours}, false
+	}
+	for h.i < DayPoints && more() {
+		pr, err := s.planner.Predict(s.spot, h.day.At[h.i])
+		if err == nil {
+			for _, hd := range pr.Heard {
+				if hd.Station.ID != h.id {
+					continue
+				}
+				h.day.FieldDB[h.i], h.day.GroundDB[h.i] = hd.FieldDB, hd.GroundDB
+				if hd.SkyDB != nil {
+					h.day.SkyDB[h.i] = *hd.SkyDB
+				}
+				h.day.MinDBuVm[h.i] = hd.FieldDB - hd.DetectorDB
+				if math.IsInf(hd.DetectorDB, -1) {
+					h.day.MinDBuVm[h.i] = math.Inf(1)
+				}
+			}
+		}
+		h.i++
+	}
+	if h.i == DayPoints {
+		h.day.Done = true
+		return Progress{}, true
+	}
+	return Progress{Job: JobHours, Done: float64(h.i) / DayPoints}, false
+}
