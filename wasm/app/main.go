@@ -1,0 +1,256 @@
+//go:build js
+
+// Command app is earshot's field app: a map of the region with its
+// transmitters and the listening spot, the rig and the clock, and the list
+// of what the rig hears there, drawn on an ebiten canvas in the browser.
+// All answers come from earshot/wasm/session, which uses the same planner
+// as the command line.
+//
+// Build: GOOS=js GOARCH=wasm go build -o app.wasm ./wasm/app (make app).
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"fmt"
+	"log"
+	"math"
+	"time"
+
+	"earshot/assets"
+	"earshot/receiver/plan"
+	"earshot/wasm/screen"
+	"earshot/wasm/session"
+
+	"github.com/hajimehoshi/ebiten/v2"
+	"github.com/hajimehoshi/ebiten/v2/text/v2"
+	"golang.org/x/image/font/gofont/gobold"
+	"golang.org/x/image/font/gofont/goregular"
+)
+
+// Frame budgets for the session's jobs: generous until the first answer
+// is on screen, then small enough to keep drawing at full rate.
+const (
+	coldBudget = 40 * time.Millisecond
+	warmBudget = 9 * time.Millisecond
+)
+
+type game struct {
+	s    *session.Session
+	mask *assets.LandMask
+
+	face, small, bold *text.GoTextFace
+
+	w, h int
+	lay  screen.Layout
+	view screen.Viewport
+	fit  bool // the view has been fitted to the region once
+
+	in       input
+	ui       uiState
+	widgets  map[string]screen.Rect
+	progress session.Progress
+
+	base      baseMap
+	side      *ebiten.Image
+	sideKey   string
+	plots     plotCache
+	ovl       overlayCache
+	lastView  time.Time // last pan or zoom
+	lastSave  time.Time
+	savedJSON string
+
+	draws int
+	ready bool
+}
+
+func main() {
+	installHook()
+	g, err := newGame()
+	if err != nil {
+		log.Fatal(err)
+	}
+	ebiten.SetWindowTitle("earshot — what will the crystal set hear?")
+	ebiten.SetRunnableOnUnfocused(true)
+	if err := ebiten.RunGame(g); err != nil {
+		log.Fatal(err)
+	}
+}
+
+func newGame() (*game, error) {
+	mask, err := assets.LoadLandMask()
+	if err != nil {
+		return nil, err
+	}
+	s, err := session.New(mask.IsLand)
+	if err != nil {
+		return nil, err
+	}
+	g := &game{s: s, mask: mask, widgets: map[string]screen.Rect{}}
+	g.ui.sortCol, g.ui.overlayOn = colMargin, true
+	if saved, ok := storageGet(); ok {
+		if err := s.Restore([]byte(saved)); err != nil {
+			storageRemove()
+			g.ui.notice = "Saved settings could not be read, so the app starts afresh (" + err.Error() + ")."
+		} else {
+			g.savedJSON = saved
+		}
+	}
+	for _, src := range []struct {
+		face **text.GoTextFace
+		ttf  []byte
+		size float64
+	}{{&g.face, goregular.TTF, 13}, {&g.small, goregular.TTF, 11}, {&g.bold, gobold.TTF, 13}} {
+		fs, err := text.NewGoTextFaceSource(bytes.NewReader(src.ttf))
+		if err != nil {
+			return nil, err
+		}
+		*src.face = &text.GoTextFace{Source: fs, Size: src.size}
+	}
+	return g, nil
+}
+
+// Layout uses the browser window's size in CSS pixels.
+func (g *game) Layout(outsideWidth, outsideHeight int) (int, int) {
+	if outsideWidth != g.w || outsideHeight != g.h {
+		g.w, g.h = max(outsideWidth, 480), max(outsideHeight, 360)
+		g.lay = screen.NewLayout(float64(g.w), float64(g.h))
+		g.view.Area = g.lay.Map
+		g.base.dirty = true
+		g.sideKey = ""
+		g.plots.key = [2]string{}
+	}
+	return g.w, g.h
+}
+
+func (g *game) Update() error {
+	if g.w == 0 {
+		return nil
+	}
+	if !g.fit {
+		g.fitRegion()
+		g.fit = true
+	}
+	g.handleInput()
+	g.s.Tick()
+	budget := warmBudget
+	if !g.ready {
+		budget = coldBudget
+	}
+	// The overlay follows the view once it has been still for a moment.
+	if time.Since(g.lastView) > 300*time.Millisecond {
+		minLat, maxLat, minLon, maxLon := g.view.Bounds()
+		cols := max(int(g.lay.Map.W/7), 8)
+		rows := max(int(g.lay.Map.H/7), 8)
+		g.s.SetOverlay(g.ui.overlayOn, plan.BBox{MinLat: minLat, MaxLat: maxLat, MinLon: minLon, MaxLon: maxLon}, cols, rows)
+	}
+	g.progress = g.s.Step(session.Deadline(budget))
+	g.persist()
+	g.publish()
+	return nil
+}
+
+// fitRegion shows the scenario's local area: the spots and the stations
+// within 300 km of the first spot.
+func (g *game) fitRegion() {
+	sp := g.s.Spot().Place
+	places := []any{}
+	_ = places
+	minLat, maxLat, minLon, maxLon := sp.LatDeg(), sp.LatDeg(), sp.LonDeg(), sp.LonDeg()
+	grow := func(lat, lon float64) {
+		minLat, maxLat = math.Min(minLat, lat), math.Max(maxLat, lat)
+		minLon, maxLon = math.Min(minLon, lon), math.Max(maxLon, lon)
+	}
+	sc, _ := g.s.Scenario()
+	for _, s := range sc.Spots() {
+		grow(s.Place.LatDeg(), s.Place.LonDeg())
+	}
+	for _, st := range g.s.Stations() {
+		if dist(st.Place.LatDeg(), st.Place.LonDeg(), sp.LatDeg(), sp.LonDeg()) < 300 {
+			grow(st.Place.LatDeg(), st.Place.LonDeg())
+		}
+	}
+	pad := 0.3
+	g.view.Fit(minLat-pad, maxLat+pad, minLon-pad, maxLon+pad)
+	g.lastView = time.Now()
+	g.base.dirty = true
+}
+
+// dist is a great-circle distance in km for layout decisions (haversine
+// on the 6371 km sphere).
+func dist(lat1, lon1, lat2, lon2 float64) float64 {
+	r := math.Pi / 180
+	a := math.Pow(math.Sin((lat2-lat1)*r/2), 2) + math.Cos(lat1*r)*math.Cos(lat2*r)*math.Pow(math.Sin((lon2-lon1)*r/2), 2)
+	return 2 * 6371 * math.Asin(math.Min(1, math.Sqrt(a)))
+}
+
+// persist saves the listener's choices when they change (at most twice a
+// second).
+func (g *game) persist() {
+	if time.Since(g.lastSave) < 500*time.Millisecond {
+		return
+	}
+	g.lastSave = time.Now()
+	data, err := g.s.Save()
+	if err != nil {
+		return
+	}
+	if string(data) != g.savedJSON {
+		storageSet(string(data))
+		g.savedJSON = string(data)
+	}
+}
+
+// appState is what earshot_state() returns.
+type appState struct {
+	session.Snapshot
+	Ready     bool                   `json:"ready"`
+	Draws     int                    `json:"draws"`
+	FPS       float64                `json:"fps"`
+	MouseDown bool                   `json:"mouse_down"`
+	Editing   string                 `json:"editing"`
+	Notice    string                 `json:"notice"`
+	Work      string                 `json:"work"`
+	Overlay   overlayStateJSON       `json:"overlay"`
+	Widgets   map[string]screen.Rect `json:"widgets"`
+	Screen    [2]int                 `json:"screen"`
+}
+
+type overlayStateJSON struct {
+	On   bool `json:"on"`
+	Rows int  `json:"rows_done"`
+	Done bool `json:"done"`
+}
+
+func (g *game) publish() {
+	o := g.s.Overlay()
+	st := appState{Snapshot: g.s.Snapshot(), Ready: g.ready, Draws: g.draws, FPS: ebiten.ActualFPS(), MouseDown: g.in.leftDown,
+		Editing: g.ui.edit.field, Notice: g.ui.notice, Work: g.progress.Job, Widgets: g.widgets, Screen: [2]int{g.w, g.h},
+		Overlay: overlayStateJSON{On: o.Enabled, Rows: o.Rows, Done: o.Done}}
+	data, err := json.Marshal(st)
+	if err != nil {
+		data = []byte(fmt.Sprintf(`{"error":%q}`, err.Error()))
+	}
+	v := g.view
+	hookPublish(string(data), g.draws, g.ready, func(lat, lon float64) (float64, float64) { return v.ToScreen(lat, lon) })
+}
+
+func (g *game) Draw(dst *ebiten.Image) {
+	if g.w == 0 {
+		return
+	}
+	dst.Fill(colBackground)
+	g.drawMap(dst)
+	g.drawSide(dst)
+	g.drawTop(dst)
+	g.drawPlots(dst)
+	g.drawCard(dst)
+	g.drawNotice(dst)
+	if g.ui.safety {
+		g.drawSafety(dst)
+	}
+	g.draws++
+	if _, fresh, _ := g.s.Prediction(); fresh && !g.ready {
+		g.ready = true
+	}
+}
