@@ -39,6 +39,8 @@ func init() {
 		{"sweep", "wire-length or hour-by-hour sweep at a spot", runSweep},
 		{"compare", "stations × listening spots", runCompare},
 		{"demo", "ground-wave table for the embedded demo scenario", runDemo},
+		{"serve", "serve the browser app on this machine", runServe},
+		{"dist", "write the browser app as one offline HTML file", runDist},
 	}
 }
 
