@@ -5,11 +5,34 @@ GOFILES   = $(shell find cmd propagation receiver assets wasm -name '*.go' 2>/de
 WASMPKGS  = ./propagation/... ./receiver/... ./assets/...
 WASMEXEC  = $(shell $(GO) env GOROOT)/lib/wasm/go_js_wasm_exec
 
-.PHONY: run test fmt vet unit fuzz wasm bench bench-wasm
+# The browser app's web files; make app writes its build outputs here.
+SITE      = wasm/site/static
 
-## run: the main job on the embedded demo scenario
-run:
-	$(GO) run ./cmd/earshot predict
+.PHONY: run app dist test fmt vet unit fuzz wasm bench bench-wasm
+
+## run: build the browser app and serve it on http://127.0.0.1:8417/
+run: app
+	$(GO) run ./cmd/earshot serve
+
+## app: build the browser app into $(SITE) (app.wasm.gz, wasm_exec.js)
+# Built and compressed in a temporary directory, then moved into place, so a
+# failed build leaves nothing half-written.
+app:
+	@set -e; tmp=$$(mktemp -d); trap 'rm -rf "$$tmp"; rm -f $(SITE)/.app.wasm.gz.part $(SITE)/.wasm_exec.js.part' EXIT; \
+	echo "GOOS=js GOARCH=wasm $(GO) build -trimpath -ldflags=\"-s -w\" -o $$tmp/app.wasm ./wasm/app"; \
+	GOOS=js GOARCH=wasm $(GO) build -trimpath -ldflags="-s -w" -o "$$tmp/app.wasm" ./wasm/app; \
+	gzip -9 -n -c "$$tmp/app.wasm" > "$$tmp/app.wasm.gz"; \
+	cp "$$($(GO) env GOROOT)/lib/wasm/wasm_exec.js" "$$tmp/wasm_exec.js"; \
+	cp "$$tmp/app.wasm.gz" $(SITE)/.app.wasm.gz.part; \
+	cp "$$tmp/wasm_exec.js" $(SITE)/.wasm_exec.js.part; \
+	mv -f $(SITE)/.app.wasm.gz.part $(SITE)/app.wasm.gz; \
+	mv -f $(SITE)/.wasm_exec.js.part $(SITE)/wasm_exec.js; \
+	echo "wrote $(SITE)/app.wasm.gz ($$(wc -c < $(SITE)/app.wasm.gz) bytes, $$(wc -c < "$$tmp/app.wasm") before gzip)"
+
+## dist: the browser app as one offline HTML file, dist/earshot.html
+dist: app
+	@mkdir -p dist
+	$(GO) run ./cmd/earshot dist --out dist/earshot.html
 
 ## test: formatting, vet, all tests, short fuzz runs, and the WebAssembly build
 test: fmt vet unit fuzz wasm
@@ -30,8 +53,13 @@ fuzz:
 	$(GO) test -run NONE -fuzz '^FuzzParseScenario$$' -fuzztime 30000x ./assets
 	$(GO) test -run NONE -fuzz '^FuzzParseStationsCSV$$' -fuzztime 50000x ./assets
 
+# wasm/app is built (output discarded) only once it exists.
 wasm:
-	GOOS=js GOARCH=wasm $(GO) build $(WASMPKGS)
+	GOOS=js GOARCH=wasm $(GO) build $(WASMPKGS) ./wasm/site
+	@if [ -d wasm/app ]; then \
+	  echo "GOOS=js GOARCH=wasm $(GO) build -o /dev/null ./wasm/app"; \
+	  GOOS=js GOARCH=wasm $(GO) build -o /dev/null ./wasm/app; \
+	fi
 
 ## bench: native benchmarks of the hot paths
 bench:
