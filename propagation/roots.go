@@ -5,7 +5,9 @@ import (
 	"fmt"
 	"math"
 	"math/cmplx"
+	"slices"
 	"sort"
+	"sync"
 )
 
 // e2pi3 is e^{−j2π/3}, the rotation between Fock's variable t and the Airy
@@ -36,6 +38,22 @@ var airyZeroTable = struct{ ai, aip [5]float64 }{
 //
 // Reference: Abramowitz and Stegun (1964) 10.4.94–10.4.95 and Table 10.13.
 func airyZeros(n int) (alpha, alphaP []float64) {
+	airyZeroMemo.Lock()
+	defer airyZeroMemo.Unlock()
+	if len(airyZeroMemo.alpha) < n {
+		airyZeroMemo.alpha, airyZeroMemo.alphaP = computeAiryZeros(n)
+	}
+	return slices.Clone(airyZeroMemo.alpha[:n]), slices.Clone(airyZeroMemo.alphaP[:n])
+}
+
+// airyZeroMemo keeps the zeros once computed: they are constants, and
+// polishing them took half the time of building a ground-wave curve.
+var airyZeroMemo struct {
+	sync.Mutex
+	alpha, alphaP []float64
+}
+
+func computeAiryZeros(n int) (alpha, alphaP []float64) {
 	alpha = make([]float64, n)
 	alphaP = make([]float64, n)
 	for i := range n {

@@ -1,6 +1,7 @@
 package plan
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"runtime"
@@ -88,7 +89,18 @@ type MapOptions struct {
 	// 2–4 % at 3 dB, 2–6 % at 6 dB, by one station in almost all, at
 	// two to three times the cost for each halving).
 	RefineDB float64
+	// Stop, when set, is asked between rows of work; once it reports true
+	// Map returns ErrStopped (an app abandons a map the listener has
+	// scrolled away from).
+	Stop func() bool
+	// Pause, when set, is called often (at every lattice node and map
+	// cell) by the goroutine doing the work. A single-threaded caller
+	// (WebAssembly) yields there so that the page keeps drawing.
+	Pause func()
 }
+
+// ErrStopped is returned by Map when MapOptions.Stop asked it to stop.
+var ErrStopped = errors.New("plan: map stopped")
 
 func (o MapOptions) refine() float64 {
 	if o.RefineDB > 0 {
@@ -195,6 +207,10 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 			}()
 		}
 		for r := range rows {
+			if opt.Stop != nil && opt.Stop() {
+				fail(ErrStopped)
+				break
+			}
 			next <- r
 		}
 		close(next)
@@ -214,7 +230,12 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 	// then on the nodes between only where the coarse square around them
 	// is not smooth for that station (attenuation varying by more than
 	// refineDB); elsewhere they are interpolated from the coarse nodes.
+	pause := opt.Pause
+	if pause == nil {
+		pause = func() {}
+	}
 	exactNode := func(i, j int, buf *propagation.Path, only func(k int) bool) {
+		pause()
 		pl := cellPlace(float64(i*stride), float64(j*stride))
 		v := unitVec(pl.LatDeg(), pl.LonDeg())
 		for k, s := range p.world.Stations {
@@ -286,6 +307,7 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 	}
 	parallel(ty, func(j int) {
 		for i := range tx {
+			pause()
 			pl := cellPlace(float64(i*ltStride), float64(j*ltStride))
 			for k, s := range p.world.Stations {
 				v := noSkyLoss
@@ -308,6 +330,7 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		lj := min(int(fy), ty-2)
 		lv := fy - float64(lj)
 		for i := range sx {
+			pause()
 			pl := cellPlace(float64(i*skyStride), float64(j*skyStride))
 			fx := float64(i*skyStride) / float64(ltStride)
 			li := min(int(fx), tx-2)
@@ -384,6 +407,7 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		parallel((len(todo)+chunk-1)/max(chunk, 1), func(c int) {
 			var buf propagation.Path
 			for n := c * chunk; n < min(len(todo), (c+1)*chunk); n++ {
+				pause()
 				q := todo[n]
 				k := q % ns
 				sqi := q / ns
@@ -484,6 +508,7 @@ func (p *Planner) Map(box BBox, nx, ny int, t time.Time, kind MapKind, stationID
 		sj := int(sy)
 		sv := sy - float64(sj)
 		for ix := range nx {
+			pause()
 			var pl propagation.Place
 			placed := false
 			var v [3]float64

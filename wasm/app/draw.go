@@ -43,17 +43,41 @@ func (g *game) label(dst *ebiten.Image, s string, x, y float64, face *text.GoTex
 	text.Draw(dst, s, face, op)
 }
 
-// fitText shortens s with an ellipsis to fit w pixels.
+// fitText shortens s with an ellipsis to fit w pixels (by bisection on
+// the number of runes; the answers are remembered, measuring is slow).
 func fitText(s string, face *text.GoTextFace, w float64) string {
-	if text.Advance(s, face) <= w {
-		return s
+	key := fitKey{s, face.Size, w}
+	if v, ok := fitMemo[key]; ok {
+		return v
 	}
-	r := []rune(s)
-	for len(r) > 1 && text.Advance(string(r)+"…", face) > w {
-		r = r[:len(r)-1]
+	out := s
+	if text.Advance(s, face) > w {
+		r := []rune(s)
+		lo, hi := 0, len(r) // r[:lo]+"…" fits; r[:hi]+"…" does not
+		for hi-lo > 1 {
+			mid := (lo + hi) / 2
+			if text.Advance(string(r[:mid])+"…", face) <= w {
+				lo = mid
+			} else {
+				hi = mid
+			}
+		}
+		out = string(r[:lo]) + "…"
 	}
-	return string(r) + "…"
+	if len(fitMemo) > 4000 {
+		clear(fitMemo)
+	}
+	fitMemo[key] = out
+	return out
 }
+
+type fitKey struct {
+	s    string
+	size float64
+	w    float64
+}
+
+var fitMemo = map[fitKey]string{}
 
 func fillRect(dst *ebiten.Image, r screen.Rect, c color.Color) {
 	vector.DrawFilledRect(dst, float32(r.X), float32(r.Y), float32(r.W), float32(r.H), c, false)
@@ -280,23 +304,22 @@ func bandColour(kHz float64) color.RGBA {
 	return color.RGBA{c(0), c(1), c(2), 255}
 }
 
-// overlayCache holds the overlay's images, rebuilt when its grids change.
+// overlayCache holds the overlay's image, rebuilt when its grid changes.
 type overlayCache struct {
-	shown    *plan.Grid
-	img      *ebiten.Image
-	work     *plan.Grid
-	workRows int
-	workImg  *ebiten.Image
-	top      float64
+	shown     *plan.Grid
+	img       *ebiten.Image
+	top       float64
+	legend    *ebiten.Image
+	legendTop float64
 }
 
-func gridImage(old *ebiten.Image, gr *plan.Grid, rows int, top float64) *ebiten.Image {
+func gridImage(old *ebiten.Image, gr *plan.Grid, top float64) *ebiten.Image {
 	if old == nil || old.Bounds().Dx() != gr.NX || old.Bounds().Dy() != gr.NY {
 		old = ebiten.NewImage(gr.NX, gr.NY)
 	}
 	pix := make([]byte, 4*gr.NX*gr.NY)
-	for i := 0; i < gr.NX*rows && i < len(gr.Values); i++ {
-		r, g, b, a := screen.Ramp(gr.Values[i], top)
+	for i, v := range gr.Values {
+		r, g, b, a := screen.Ramp(v, top)
 		// Premultiplied alpha.
 		pix[4*i], pix[4*i+1], pix[4*i+2], pix[4*i+3] = uint8(int(r)*int(a)/255), uint8(int(g)*int(a)/255), uint8(int(b)*int(a)/255), a
 	}
@@ -310,47 +333,48 @@ func (g *game) drawOverlay(dst *ebiten.Image) {
 		return
 	}
 	c := &g.ovl
-	c.top = math.Max(1, float64(len(g.s.Stations()))*0.6)
-	if o.Shown != nil && o.Shown != c.shown {
-		c.shown, c.img = o.Shown, gridImage(c.img, o.Shown, o.Shown.NY, c.top)
-	}
-	if o.Shown == nil {
-		c.shown = nil
-	}
-	if o.Work != c.work || o.Rows != c.workRows {
-		c.work, c.workRows = o.Work, o.Rows
-		if o.Work != nil {
-			c.workImg = gridImage(c.workImg, o.Work, o.Rows, c.top)
+	c.top = math.Max(1, math.Round(float64(len(g.s.Stations()))*0.6))
+	if o.Shown != c.shown {
+		c.shown = o.Shown
+		if o.Shown != nil {
+			c.img = gridImage(c.img, o.Shown, c.top)
 		}
 	}
-	put := func(img *ebiten.Image, gr *plan.Grid) {
+	if c.shown != nil && c.img != nil {
+		gr := c.shown
 		x0, y0 := g.view.ToScreen(gr.Box.MaxLat, gr.Box.MinLon)
 		x1, y1 := g.view.ToScreen(gr.Box.MinLat, gr.Box.MaxLon)
 		op := &ebiten.DrawImageOptions{}
 		op.GeoM.Scale((x1-x0)/float64(gr.NX), (y1-y0)/float64(gr.NY))
 		op.GeoM.Translate(x0, y0)
-		dst.DrawImage(img, op)
+		dst.DrawImage(c.img, op)
 	}
-	if c.shown != nil && c.img != nil {
-		put(c.img, c.shown)
-	}
-	if o.Work != nil && c.workImg != nil {
-		put(c.workImg, o.Work)
-	}
-	// Legend, upper right of the map.
+	// Legend, upper right of the map (its colour bar drawn once).
 	m := g.lay.Map
 	lw, lh := 150.0, 44.0
 	lr := screen.Rect{X: m.X + m.W - lw - 10, Y: m.Y + 10, W: lw, H: lh}
 	fillRect(dst, lr, color.RGBA{22, 26, 32, 210})
 	g.label(dst, "stations heard here", lr.X+6, lr.Y+3, g.small, colText)
-	for i := 0; i < 128; i++ {
-		r, gg, b, _ := screen.Ramp(float64(i)/127*c.top, c.top)
-		vector.DrawFilledRect(dst, float32(lr.X+6+float64(i)), float32(lr.Y+19), 1, 10, color.RGBA{r, gg, b, 255}, false)
+	if c.legend == nil || c.legendTop != c.top {
+		c.legend, c.legendTop = ebiten.NewImage(128, 1), c.top
+		pix := make([]byte, 4*128)
+		for i := range 128 {
+			r, gg, b, _ := screen.Ramp(float64(i)/127*c.top, c.top)
+			pix[4*i], pix[4*i+1], pix[4*i+2], pix[4*i+3] = r, gg, b, 255
+		}
+		c.legend.WritePixels(pix)
 	}
+	lop := &ebiten.DrawImageOptions{}
+	lop.GeoM.Scale(1, 10)
+	lop.GeoM.Translate(lr.X+6, lr.Y+19)
+	dst.DrawImage(c.legend, lop)
 	g.label(dst, "0", lr.X+6, lr.Y+29, g.small, colDim)
 	top := fmt.Sprintf("%.0f+", c.top)
 	g.label(dst, top, lr.X+134-text.Advance(top, g.small), lr.Y+29, g.small, colDim)
-	if !o.Done {
+	switch {
+	case o.Err != nil:
+		g.label(dst, "failed", lr.X+56, lr.Y+29, g.small, colWarn)
+	case !o.Done:
 		g.label(dst, "refining…", lr.X+50, lr.Y+29, g.small, colDim)
 	}
 }
@@ -363,7 +387,7 @@ func (g *game) drawTop(dst *ebiten.Image) {
 	name := sc.Name
 	if src != "demo" {
 		name += " (" + src + ")"
-	} else {
+	} else if !strings.Contains(strings.ToLower(name), "invented") {
 		name += " — invented demo data"
 	}
 	g.label(dst, fitText(name, g.face, 360), t.X+80, t.Y+7, g.face, colText)
@@ -435,8 +459,30 @@ func (g *game) drawSafety(dst *ebiten.Image) {
 	}
 }
 
-// drawSide draws the rig, the clock and the result list.
+// drawSide draws the rig, the clock and the result list, through an
+// offscreen image redrawn only when what it shows changes.
 func (g *game) drawSide(dst *ebiten.Image) {
+	s := g.lay.Side
+	pr, fresh, err := g.s.Prediction()
+	spec, rigErr := g.s.Rig()
+	at, follow := g.s.At()
+	key := fmt.Sprintf("%p %v %v|%+v %v|%v %v|%v %v %d %s %s %s %s|%s %v", pr, fresh, err, spec, rigErr, at, follow,
+		g.ui.sortCol, g.ui.sortAsc, g.ui.scroll, g.ui.edit.field, g.ui.edit.buf, g.ui.rigMsg, g.s.Selected(), g.s.Spot().Name, s)
+	if g.side == nil || g.side.Bounds().Dx() != g.w || g.side.Bounds().Dy() != g.h {
+		g.side = ebiten.NewImage(g.w, g.h)
+		g.sideKey = ""
+	}
+	if key != g.sideKey {
+		g.sideKey = key
+		g.side.Clear()
+		g.drawSidePanel(g.side)
+	}
+	op := &ebiten.DrawImageOptions{}
+	op.GeoM.Translate(s.X, s.Y)
+	dst.DrawImage(g.side.SubImage(imageRect(s)).(*ebiten.Image), op)
+}
+
+func (g *game) drawSidePanel(dst *ebiten.Image) {
 	s := g.lay.Side
 	fillRect(dst, s, colPanel)
 	vector.StrokeLine(dst, float32(s.X)+0.5, float32(s.Y), float32(s.X)+0.5, float32(s.Y+s.H), 1, colPanelEdge, false)
@@ -463,7 +509,7 @@ func (g *game) drawRig(dst *ebiten.Image) {
 		c := colText
 		if g.ui.edit.field == row.name {
 			fillRect(dst, vr, colSelect)
-			val = g.ui.edit.buf + "▏"
+			val = g.ui.edit.buf + "|"
 			c = colAccent
 		}
 		if row.unit != "" && g.ui.edit.field != row.name {
@@ -490,8 +536,8 @@ func (g *game) drawClock(dst *ebiten.Image) {
 	sp := g.s.Spot().Place
 	g.label(dst, "Clock (UTC)", r.X+10, r.Y+3, g.bold, colAccent)
 	g.label(dst, at.Format("Mon 2 Jan 2006  15:04"), r.X+100, r.Y+3, g.face, colText)
-	g.button(dst, "clock.prev", "◀ day", screen.Rect{X: r.X + r.W - 170, Y: r.Y + 1, W: 54, H: screen.RowH - 3}, false)
-	g.button(dst, "clock.next", "day ▶", screen.Rect{X: r.X + r.W - 112, Y: r.Y + 1, W: 54, H: screen.RowH - 3}, false)
+	g.button(dst, "clock.prev", "◄ day", screen.Rect{X: r.X + r.W - 170, Y: r.Y + 1, W: 54, H: screen.RowH - 3}, false)
+	g.button(dst, "clock.next", "day ►", screen.Rect{X: r.X + r.W - 112, Y: r.Y + 1, W: 54, H: screen.RowH - 3}, false)
 	g.button(dst, "clock.now", "now", screen.Rect{X: r.X + r.W - 54, Y: r.Y + 1, W: 46, H: screen.RowH - 3}, follow)
 	// The 24 h slider, shaded where the sun is down at the spot.
 	sl := screen.Rect{X: r.X + 10, Y: r.Y + screen.RowH + 4, W: r.W - 20, H: 14}
@@ -587,11 +633,11 @@ func (g *game) drawResults(dst *ebiten.Image) {
 	const rowH = 32.0
 	y := hy + screen.RowH
 	visible := int((r.Y + r.H - y) / rowH)
+	if visible < len(rows) {
+		visible = int((r.Y + r.H - 18 - y) / rowH) // room for the scroll note
+	}
 	g.ui.scroll = max(0, min(g.ui.scroll, len(rows)-visible))
-	for _, h := range rows[g.ui.scroll:] {
-		if y+rowH > r.Y+r.H {
-			break
-		}
+	for _, h := range rows[g.ui.scroll:min(len(rows), g.ui.scroll+visible)] {
 		rr := screen.Rect{X: r.X + 4, Y: y, W: r.W - 8, H: rowH - 2}
 		g.widgets["row."+h.Station.ID] = rr
 		if h.Station.ID == g.s.Selected() {

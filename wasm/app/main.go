@@ -33,6 +33,9 @@ import (
 const (
 	coldBudget = 40 * time.Millisecond
 	warmBudget = 9 * time.Millisecond
+	// overlaySlice is how long the overlay's goroutine works between
+	// sleeps.
+	overlaySlice = 6 * time.Millisecond
 )
 
 type game struct {
@@ -60,8 +63,9 @@ type game struct {
 	lastSave  time.Time
 	savedJSON string
 
-	draws int
-	ready bool
+	draws  int
+	ready  bool
+	timing map[string]float64 // smoothed milliseconds per part of a tick
 }
 
 func main() {
@@ -86,7 +90,17 @@ func newGame() (*game, error) {
 	if err != nil {
 		return nil, err
 	}
-	g := &game{s: s, mask: mask, widgets: map[string]screen.Rect{}}
+	g := &game{s: s, mask: mask, widgets: map[string]screen.Rect{}, timing: map[string]float64{}}
+	// The overlay is worked out in a goroutine; on the browser's single
+	// thread it must sleep now and then for the page to draw (a sleep hands
+	// control back to the browser until its timer fires).
+	var slice time.Time
+	s.SetYield(func() {
+		if time.Since(slice) > overlaySlice {
+			time.Sleep(time.Millisecond)
+			slice = time.Now()
+		}
+	})
 	g.ui.sortCol, g.ui.overlayOn = colMargin, true
 	if saved, ok := storageGet(); ok {
 		if err := s.Restore([]byte(saved)); err != nil {
@@ -144,9 +158,13 @@ func (g *game) Update() error {
 		rows := max(int(g.lay.Map.H/7), 8)
 		g.s.SetOverlay(g.ui.overlayOn, plan.BBox{MinLat: minLat, MaxLat: maxLat, MinLon: minLon, MaxLon: maxLon}, cols, rows)
 	}
+	t := time.Now()
 	g.progress = g.s.Step(session.Deadline(budget))
+	g.timing["step"] = 0.8*g.timing["step"] + 0.2*float64(time.Since(t).Microseconds())/1000
+	t = time.Now()
 	g.persist()
 	g.publish()
+	g.timing["publish"] = 0.8*g.timing["publish"] + 0.2*float64(time.Since(t).Microseconds())/1000
 	return nil
 }
 
@@ -214,19 +232,20 @@ type appState struct {
 	Overlay   overlayStateJSON       `json:"overlay"`
 	Widgets   map[string]screen.Rect `json:"widgets"`
 	Screen    [2]int                 `json:"screen"`
+	Timing    map[string]float64     `json:"timing_ms"`
 }
 
 type overlayStateJSON struct {
-	On   bool `json:"on"`
-	Rows int  `json:"rows_done"`
-	Done bool `json:"done"`
+	On   bool    `json:"on"`
+	Frac float64 `json:"progress"`
+	Done bool    `json:"done"`
 }
 
 func (g *game) publish() {
 	o := g.s.Overlay()
 	st := appState{Snapshot: g.s.Snapshot(), Ready: g.ready, Draws: g.draws, FPS: ebiten.ActualFPS(), MouseDown: g.in.leftDown,
-		Editing: g.ui.edit.field, Notice: g.ui.notice, Work: g.progress.Job, Widgets: g.widgets, Screen: [2]int{g.w, g.h},
-		Overlay: overlayStateJSON{On: o.Enabled, Rows: o.Rows, Done: o.Done}}
+		Editing: g.ui.edit.field, Notice: g.ui.notice, Work: g.progress.Job, Widgets: g.widgets, Screen: [2]int{g.w, g.h}, Timing: g.timing,
+		Overlay: overlayStateJSON{On: o.Enabled, Frac: o.Frac, Done: o.Done}}
 	data, err := json.Marshal(st)
 	if err != nil {
 		data = []byte(fmt.Sprintf(`{"error":%q}`, err.Error()))
@@ -240,12 +259,22 @@ func (g *game) Draw(dst *ebiten.Image) {
 		return
 	}
 	dst.Fill(colBackground)
+	t := time.Now()
+	lap := func(name string) {
+		now := time.Now()
+		g.timing[name] = 0.8*g.timing[name] + 0.2*float64(now.Sub(t).Microseconds())/1000
+		t = now
+	}
 	g.drawMap(dst)
+	lap("map")
 	g.drawSide(dst)
+	lap("side")
 	g.drawTop(dst)
 	g.drawPlots(dst)
+	lap("plots")
 	g.drawCard(dst)
 	g.drawNotice(dst)
+	lap("card")
 	if g.ui.safety {
 		g.drawSafety(dst)
 	}

@@ -2,28 +2,34 @@ package session
 
 import (
 	"math"
+	"sync"
+	"sync/atomic"
 	"time"
 
 	"earshot/propagation"
 	"earshot/receiver/plan"
 )
 
-// Overlay rows are computed in bands of this many rows (one plan.Map call
-// each: a few milliseconds of WebAssembly per band at 128 columns).
-const overlayBandRows = 4
-
-// overlayJob computes the count map over the visible box: a coarse grid in
-// one piece, then the full grid band by band.
+// overlayJob computes the count map over the visible box: a coarse grid
+// (a quarter of the resolution each way), then the full grid, each by one
+// plan.Map call in a goroutine of its own. Under WebAssembly that
+// goroutine shares the single thread with the app: Map's progress
+// Pause hook calls the session's yield, which lets the browser draw
+// frames between pieces of the map (see SetYield).
 type overlayJob struct {
 	enabled    bool
 	box        plan.BBox
 	cols, rows int
-	shown      *plan.Grid // the last complete grid
-	work       *plan.Grid // the grid being filled, row by row
-	workRow    int
-	level      int // 0 coarse, 1 full, 2 complete
-	err        error
 	at         time.Time // the instant of the grids
+	gen        int       // bumped on every restart
+
+	mu      sync.Mutex // guards the fields below, written by the worker
+	running bool
+	shown   *plan.Grid // the last complete grid
+	level   int        // 0 none yet, 1 coarse, 2 full
+	done    float64    // fraction of the current grid
+	err     error
+	stop    atomic.Int64 // the generation the worker must stop at
 }
 
 // overlayRetime is how far the clock may move before the overlay is
@@ -31,20 +37,25 @@ type overlayJob struct {
 const overlayRetime = 15 * time.Minute
 
 func (o *overlayJob) restart() {
-	if o.cols == 0 {
-		return
-	}
-	o.shown, o.work, o.workRow, o.level, o.err = nil, nil, 0, 0, nil
+	o.mu.Lock()
+	defer o.mu.Unlock()
+	o.gen++
+	o.stop.Store(int64(o.gen))
+	o.shown, o.level, o.done, o.err = nil, 0, 0, nil
 }
 
 func (o *overlayJob) pending(s *Session) bool {
 	if !o.enabled || o.cols == 0 {
 		return false
 	}
-	if o.level > 0 && (s.at.Sub(o.at) >= overlayRetime || o.at.Sub(s.at) >= overlayRetime) {
+	o.mu.Lock()
+	level, shown, err := o.level, o.shown, o.err
+	o.mu.Unlock()
+	if shown != nil && (s.at.Sub(o.at) >= overlayRetime || o.at.Sub(s.at) >= overlayRetime) {
 		o.restart()
+		level = 0
 	}
-	return o.level < 2 && o.err == nil
+	return level < 2 && err == nil
 }
 
 // SetOverlay asks for the count overlay over box at cols×rows cells (the
@@ -52,11 +63,14 @@ func (o *overlayJob) pending(s *Session) bool {
 // is clipped to valid latitudes and longitudes. A different box or size
 // restarts it.
 func (s *Session) SetOverlay(enabled bool, box plan.BBox, cols, rows int) {
-	o := &s.overlay
-	o.enabled = enabled
+	o := s.overlay
 	box.MinLat, box.MaxLat = math.Max(-89.9, box.MinLat), math.Min(89.9, box.MaxLat)
 	box.MinLon, box.MaxLon = math.Max(-180, box.MinLon), math.Min(180, box.MaxLon)
 	cols, rows = max(cols, 8), max(rows, 8)
+	if enabled != o.enabled {
+		o.enabled = enabled
+		o.restart()
+	}
 	if box == o.box && cols == o.cols && rows == o.rows {
 		return
 	}
@@ -64,59 +78,79 @@ func (s *Session) SetOverlay(enabled bool, box plan.BBox, cols, rows int) {
 	o.restart()
 }
 
+// SetYield sets a function that Map calls at every node and cell while
+// the overlay is computed in its goroutine. A single-threaded caller
+// (WebAssembly) passes one that sleeps briefly every few milliseconds so
+// the browser can run its frames; natively it is not needed.
+func (s *Session) SetYield(yield func()) { s.yield = yield }
+
 // OverlayState is what the overlay has to show.
 type OverlayState struct {
 	Enabled bool
-	Shown   *plan.Grid // complete grid (coarse or full), nil at first
-	Work    *plan.Grid // full grid being filled, rows < WorkRows valid
-	Rows    int
+	Shown   *plan.Grid // the latest complete grid (coarse, then full), nil at first
+	Done    bool       // the full grid is shown
+	Frac    float64    // progress of the grid being computed
 	Err     error
-	Done    bool
 }
 
 // Overlay returns the overlay's state.
 func (s *Session) Overlay() OverlayState {
-	o := &s.overlay
-	return OverlayState{Enabled: o.enabled, Shown: o.shown, Work: o.work, Rows: o.workRow, Err: o.err, Done: o.level == 2}
+	o := s.overlay
+	o.mu.Lock()
+	defer o.mu.Unlock()
+	return OverlayState{Enabled: o.enabled, Shown: o.shown, Done: o.level == 2, Frac: o.done, Err: o.err}
 }
 
 func (o *overlayJob) step(s *Session, more Budget) (Progress, bool) {
-	if o.box.Validate() != nil {
-		o.err = o.box.Validate()
+	o.mu.Lock()
+	running, frac, level := o.running, o.done, o.level
+	o.mu.Unlock()
+	if running {
+		return Progress{Job: JobOverlay, Done: (float64(level) + frac) / 2}, false
+	}
+	if err := o.box.Validate(); err != nil {
+		o.mu.Lock()
+		o.err = err
+		o.mu.Unlock()
 		return Progress{}, true
 	}
-	for more() {
-		if o.level == 0 {
-			o.at = s.at
-			g, err := s.planner.Map(o.box, max(o.cols/4, 2), max(o.rows/4, 2), s.at, plan.MapCount, "", plan.MapOptions{Workers: 1}, nil)
+	o.at = s.at
+	gen, box, cols, rows, at, p, yield := o.gen, o.box, o.cols, o.rows, o.at, s.planner, s.yield
+	o.mu.Lock()
+	o.running = true
+	o.mu.Unlock()
+	go func() {
+		defer func() {
+			o.mu.Lock()
+			o.running = false
+			o.mu.Unlock()
+		}()
+		stop := func() bool { return o.stop.Load() != int64(gen) }
+		for lvl, div := range []int{4, 1} {
+			if lvl < level {
+				continue
+			}
+			progress := func(done, total int) {
+				o.mu.Lock()
+				o.done = float64(done) / float64(total)
+				o.mu.Unlock()
+			}
+			g, err := p.Map(box, max(cols/div, 2), max(rows/div, 2), at, plan.MapCount, "", plan.MapOptions{Workers: 1, Stop: stop, Pause: yield}, progress)
+			o.mu.Lock()
+			if o.gen != gen {
+				o.mu.Unlock()
+				return
+			}
 			if err != nil {
 				o.err = err
-				return Progress{}, true
+				o.mu.Unlock()
+				return
 			}
-			o.shown, o.level = g, 1
-			o.work = &plan.Grid{Box: o.box, NX: o.cols, NY: o.rows, Kind: plan.MapCount, At: o.at, Values: make([]float64, o.cols*o.rows)}
-			continue
+			o.shown, o.level, o.done = g, lvl+1, 0
+			o.mu.Unlock()
 		}
-		r0 := o.workRow
-		r1 := min(r0+overlayBandRows, o.rows)
-		if r1-r0 < 2 { // plan.Map needs two rows: redo the last one
-			r0 = r1 - 2
-		}
-		dLat := (o.box.MaxLat - o.box.MinLat) / float64(o.rows)
-		band := plan.BBox{MinLat: o.box.MaxLat - float64(r1)*dLat, MaxLat: o.box.MaxLat - float64(r0)*dLat, MinLon: o.box.MinLon, MaxLon: o.box.MaxLon}
-		g, err := s.planner.Map(band, o.cols, r1-r0, o.at, plan.MapCount, "", plan.MapOptions{Workers: 1}, nil)
-		if err != nil {
-			o.err = err
-			return Progress{}, true
-		}
-		copy(o.work.Values[r0*o.cols:r1*o.cols], g.Values)
-		o.workRow = r1
-		if r1 == o.rows {
-			o.shown, o.work, o.level = o.work, nil, 2
-			return Progress{}, true
-		}
-	}
-	return Progress{Job: JobOverlay, Done: float64(o.workRow) / float64(o.rows)}, false
+	}()
+	return Progress{Job: JobOverlay}, false
 }
 
 // wireJob counts the audible stations by day and at night for each wire

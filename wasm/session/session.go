@@ -43,11 +43,12 @@ type Session struct {
 	predGen  int
 	predBusy bool
 
-	overlay overlayJob
+	overlay *overlayJob
 	wire    wireJob
 	hours   hourJob
 
-	now func() time.Time
+	now   func() time.Time
+	yield func()
 }
 
 // New returns a session on the embedded demo scenario at its first spot,
@@ -57,7 +58,7 @@ func New(isLand func(lat, lon float64) bool) (*Session, error) {
 	if err != nil {
 		return nil, err
 	}
-	s := &Session{isLand: isLand, now: func() time.Time { return time.Now().UTC() }, followNow: true}
+	s := &Session{isLand: isLand, now: func() time.Time { return time.Now().UTC() }, followNow: true, overlay: new(overlayJob)}
 	if err := s.setScenario(sc, "demo"); err != nil {
 		return nil, err
 	}
