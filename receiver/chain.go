@@ -264,8 +264,10 @@ func (r Rig) receive(fr Front, fieldDBuVm float64) (Reception, error) {
 	load := r.audioLoadOhm()
 	// Self-consistent detector voltage: v = vth·R_in(v)/(rth + R_in(v)).
 	// The map is increasing in v (R_in rises with level), so iterating from
-	// the weak-signal value converges monotonically; bisection is the
-	// fallback when it converges slowly.
+	// the weak-signal value climbs monotonically to the root; where that is
+	// slow (strong signals) the root is bracketed between the last iterate
+	// and vth and found by the Illinois variant of regula falsi (Dowell &
+	// Jarratt 1971, BIT 11, 168–174: superlinear, never leaves the bracket).
 	step := func(v float64) (float64, error) {
 		rin, err := r.Diode.InputResistanceOhm(math.Max(v, 1e-9), load)
 		if err != nil {
@@ -275,7 +277,7 @@ func (r Rig) receive(fr Front, fieldDBuVm float64) (Reception, error) {
 	}
 	vdet := vth * fr.DetectorWeakOhm / (rth + fr.DetectorWeakOhm)
 	converged := false
-	for range 12 {
+	for range 4 {
 		next, err := step(vdet)
 		if err != nil {
 			return Reception{}, err
@@ -287,20 +289,10 @@ func (r Rig) receive(fr Front, fieldDBuVm float64) (Reception, error) {
 		vdet = next
 	}
 	if !converged {
-		lo, hi := 0.0, vth
-		for range 50 {
-			mid := (lo + hi) / 2
-			next, err := step(mid)
-			if err != nil {
-				return Reception{}, err
-			}
-			if mid > next {
-				hi = mid
-			} else {
-				lo = mid
-			}
+		var err error
+		if vdet, err = solveDetector(step, vdet, vth); err != nil {
+			return Reception{}, err
 		}
-		vdet = (lo + hi) / 2
 	}
 	rc.DetectorMV = vdet * 1e3
 	var err error
@@ -379,4 +371,59 @@ func (r Rig) MinAudibleDBuVm(f KHz) (float64, error) {
 		}
 	}
 	return hi, nil
+}
+
+// solveDetector finds v in [lo, hi] with step(v) = v, given step(lo) ≥ lo
+// and step(hi) < hi, by the Illinois method to a relative 1e-9 (bisecting
+// instead should the bracket misbehave).
+func solveDetector(step func(float64) (float64, error), lo, hi float64) (float64, error) {
+	g := func(v float64) (float64, error) {
+		s, err := step(v)
+		return s - v, err
+	}
+	glo, err := g(lo)
+	if err != nil {
+		return 0, err
+	}
+	ghi, err := g(hi)
+	if err != nil {
+		return 0, err
+	}
+	if glo < 0 || ghi > 0 { // not a bracket: fall back to the whole range
+		lo, glo = 0, math.Inf(1)
+	}
+	side := 0
+	for range 100 {
+		if hi-lo <= 1e-9*hi {
+			break
+		}
+		x := (lo + hi) / 2
+		if !math.IsInf(glo, 0) && glo != ghi {
+			x = (lo*ghi - hi*glo) / (ghi - glo)
+			if !(x > lo && x < hi) {
+				x = (lo + hi) / 2
+			}
+		}
+		gx, err := g(x)
+		if err != nil {
+			return 0, err
+		}
+		if math.Abs(gx) <= 1e-12*x {
+			return x, nil
+		}
+		if gx > 0 {
+			lo, glo = x, gx
+			if side == -1 {
+				ghi /= 2 // Illinois: halve the stale end's value
+			}
+			side = -1
+		} else {
+			hi, ghi = x, gx
+			if side == 1 {
+				glo /= 2
+			}
+			side = 1
+		}
+	}
+	return (lo + hi) / 2, nil
 }

@@ -224,6 +224,16 @@ func TestChainTable(t *testing.T) {
 				t.Errorf("%g kHz, %.1f dB(µV/m): table margin %.3f, chain %.3f", float64(f), e, got, rc.MarginDB)
 			}
 		}
+		// Beyond the table: linear extension, within 1.5 dB up to 120.
+		for _, e := range []float64{105, 112, 120} {
+			rc, err := p.rig.Receive(f, e)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got := ct.margin(e); math.Abs(got-rc.MarginDB) > 1.5 {
+				t.Errorf("%g kHz, %.1f dB(µV/m): extended margin %.3f, chain %.3f", float64(f), e, got, rc.MarginDB)
+			}
+		}
 		m, _ := p.rig.MinAudibleDBuVm(f)
 		if ct.minDBuVm != m {
 			t.Errorf("%g kHz: table threshold %g, rig %g", float64(f), ct.minDBuVm, m)

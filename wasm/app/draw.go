@@ -237,7 +237,7 @@ func (g *game) drawMap(dst *ebiten.Image) {
 				}
 				x, y := g.view.ToScreen(p.LatDeg(), p.LonDeg())
 				if i > 0 {
-					vector.StrokeLine(mapImg, float32(px), float32(py), float32(x), float32(y), 2, colAccent, true)
+					vector.StrokeLine(mapImg, float32(px), float32(py), float32(x), float32(y), 2, colAccent, false)
 				}
 				px, py = x, y
 			}
@@ -258,14 +258,14 @@ func (g *game) drawMap(dst *ebiten.Image) {
 		}
 		r := float32(3 + 1.6*math.Log10(math.Max(st.KWDay, st.KWNight)*10+1))
 		c := bandColour(float64(st.KHz))
-		vector.DrawFilledCircle(mapImg, float32(x), float32(y), r, c, true)
+		vector.DrawFilledCircle(mapImg, float32(x), float32(y), r, c, false)
 		edge := color.RGBA{15, 15, 15, 255}
 		if heard[st.ID] {
 			edge = color.RGBA{250, 250, 250, 255}
 		}
-		vector.StrokeCircle(mapImg, float32(x), float32(y), r, 1.5, edge, true)
+		vector.StrokeCircle(mapImg, float32(x), float32(y), r, 1.5, edge, false)
 		if st.ID == g.s.Selected() {
-			vector.StrokeCircle(mapImg, float32(x), float32(y), r+4, 2, colAccent, true)
+			vector.StrokeCircle(mapImg, float32(x), float32(y), r+4, 2, colAccent, false)
 		}
 		if showIDs {
 			g.label(mapImg, st.ID, x+float64(r)+3, y-8, g.small, colText)
@@ -273,11 +273,11 @@ func (g *game) drawMap(dst *ebiten.Image) {
 	}
 	// The listening spot: a ring with a cross.
 	x, y := g.view.ToScreen(sp.LatDeg(), sp.LonDeg())
-	vector.StrokeCircle(mapImg, float32(x), float32(y), 8, 2.5, colSpot, true)
-	vector.StrokeLine(mapImg, float32(x-13), float32(y), float32(x-4), float32(y), 2, colSpot, true)
-	vector.StrokeLine(mapImg, float32(x+4), float32(y), float32(x+13), float32(y), 2, colSpot, true)
-	vector.StrokeLine(mapImg, float32(x), float32(y-13), float32(x), float32(y-4), 2, colSpot, true)
-	vector.StrokeLine(mapImg, float32(x), float32(y+4), float32(x), float32(y+13), 2, colSpot, true)
+	vector.StrokeCircle(mapImg, float32(x), float32(y), 8, 2.5, colSpot, false)
+	vector.StrokeLine(mapImg, float32(x-13), float32(y), float32(x-4), float32(y), 2, colSpot, false)
+	vector.StrokeLine(mapImg, float32(x+4), float32(y), float32(x+13), float32(y), 2, colSpot, false)
+	vector.StrokeLine(mapImg, float32(x), float32(y-13), float32(x), float32(y-4), 2, colSpot, false)
+	vector.StrokeLine(mapImg, float32(x), float32(y+4), float32(x), float32(y+13), 2, colSpot, false)
 
 	// Scale bar, lower right.
 	km, px := g.view.ScaleBar(160)
@@ -647,7 +647,7 @@ func (g *game) drawResults(dst *ebiten.Image) {
 		if h.Audible {
 			c = colText
 		}
-		vector.DrawFilledCircle(dst, float32(r.X+10), float32(y+8), 4, bandColour(float64(h.Station.KHz)), true)
+		vector.DrawFilledCircle(dst, float32(r.X+10), float32(y+8), 4, bandColour(float64(h.Station.KHz)), false)
 		g.label(dst, fitText(h.Station.ID+" "+h.Station.Name, g.face, colX[1]-colX[0]-14), r.X+colX[0]+8, y+1, g.face, c)
 		g.label(dst, fmt.Sprintf("%.0f", float64(h.Station.KHz)), r.X+colX[1], y+1, g.face, c)
 		g.label(dst, fmt.Sprintf("%.0f", h.DistKm), r.X+colX[2], y+1, g.face, c)

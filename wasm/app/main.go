@@ -63,9 +63,10 @@ type game struct {
 	lastSave  time.Time
 	savedJSON string
 
-	draws  int
-	ready  bool
-	timing map[string]float64 // smoothed milliseconds per part of a tick
+	draws   int
+	updates int
+	ready   bool
+	timing  map[string]float64 // smoothed milliseconds per part of a tick
 }
 
 func main() {
@@ -76,6 +77,9 @@ func main() {
 	}
 	ebiten.SetWindowTitle("earshot — what will the crystal set hear?")
 	ebiten.SetRunnableOnUnfocused(true)
+	// One Update per frame: the app is not a simulation that must catch up,
+	// and each Update already spends a time budget on the jobs.
+	ebiten.SetTPS(ebiten.SyncWithFPS)
 	if err := ebiten.RunGame(g); err != nil {
 		log.Fatal(err)
 	}
@@ -138,6 +142,7 @@ func (g *game) Layout(outsideWidth, outsideHeight int) (int, int) {
 }
 
 func (g *game) Update() error {
+	g.updates++
 	if g.w == 0 {
 		return nil
 	}
@@ -233,6 +238,7 @@ type appState struct {
 	Widgets   map[string]screen.Rect `json:"widgets"`
 	Screen    [2]int                 `json:"screen"`
 	Timing    map[string]float64     `json:"timing_ms"`
+	Updates   int                    `json:"updates"`
 }
 
 type overlayStateJSON struct {
@@ -244,7 +250,7 @@ type overlayStateJSON struct {
 func (g *game) publish() {
 	o := g.s.Overlay()
 	st := appState{Snapshot: g.s.Snapshot(), Ready: g.ready, Draws: g.draws, FPS: ebiten.ActualFPS(), MouseDown: g.in.leftDown,
-		Editing: g.ui.edit.field, Notice: g.ui.notice, Work: g.progress.Job, Widgets: g.widgets, Screen: [2]int{g.w, g.h}, Timing: g.timing,
+		Editing: g.ui.edit.field, Notice: g.ui.notice, Work: g.progress.Job, Widgets: g.widgets, Screen: [2]int{g.w, g.h}, Timing: g.timing, Updates: g.updates,
 		Overlay: overlayStateJSON{On: o.Enabled, Frac: o.Frac, Done: o.Done}}
 	data, err := json.Marshal(st)
 	if err != nil {

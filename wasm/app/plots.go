@@ -103,9 +103,9 @@ func (g *game) drawWirePlot(dst *ebiten.Image, r screen.Rect) {
 			}
 			x, y := f.px(lengths[i], float64(n))
 			if !first {
-				vector.StrokeLine(img, px, py, x, y, 2, s.c, true)
+				vector.StrokeLine(img, px, py, x, y, 2, s.c, false)
 			}
-			vector.DrawFilledCircle(img, x, y, 2.5, s.c, true)
+			vector.DrawFilledCircle(img, x, y, 2.5, s.c, false)
 			px, py, first = x, y, false
 		}
 	}
@@ -172,7 +172,7 @@ func (g *game) drawDayPlot(dst *ebiten.Image, r screen.Rect) {
 			}
 			x, yy := f.px(hours(d.At[i]), y)
 			if !first {
-				vector.StrokeLine(img, px, py, x, yy, 2, c, true)
+				vector.StrokeLine(img, px, py, x, yy, 2, c, false)
 			}
 			px, py, first = x, yy, false
 		}
