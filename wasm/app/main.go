@@ -63,11 +63,17 @@ type game struct {
 	lastSave  time.Time
 	savedJSON string
 
-	draws   int
-	updates int
-	ready   bool
-	timing  map[string]float64 // smoothed milliseconds per part of a tick
+	draws     int
+	updates   int
+	started   time.Time // when main began
+	lastFrame string    // frameKey of the frame on screen
+	cold      coldStart
+	ready     bool
+	timing    map[string]float64 // smoothed milliseconds per part of a tick
 }
+
+// started is when the program began.
+var started = time.Now()
 
 func main() {
 	installHook()
@@ -80,6 +86,7 @@ func main() {
 	// One Update per frame: the app is not a simulation that must catch up,
 	// and each Update already spends a time budget on the jobs.
 	ebiten.SetTPS(ebiten.SyncWithFPS)
+	ebiten.SetScreenClearedEveryFrame(false)
 	if err := ebiten.RunGame(g); err != nil {
 		log.Fatal(err)
 	}
@@ -94,7 +101,7 @@ func newGame() (*game, error) {
 	if err != nil {
 		return nil, err
 	}
-	g := &game{s: s, mask: mask, widgets: map[string]screen.Rect{}, timing: map[string]float64{}}
+	g := &game{s: s, mask: mask, widgets: map[string]screen.Rect{}, timing: map[string]float64{}, started: started}
 	// The overlay is worked out in a goroutine; on the browser's single
 	// thread it must sleep now and then for the page to draw (a sleep hands
 	// control back to the browser until its timer fires).
@@ -165,7 +172,13 @@ func (g *game) Update() error {
 	}
 	t := time.Now()
 	g.progress = g.s.Step(session.Deadline(budget))
-	g.timing["step"] = 0.8*g.timing["step"] + 0.2*float64(time.Since(t).Microseconds())/1000
+	stepMs := float64(time.Since(t).Microseconds()) / 1000
+	g.timing["step"] = 0.8*g.timing["step"] + 0.2*stepMs
+	if !g.ready {
+		g.cold.Updates++
+		g.cold.StepMs += stepMs
+		g.cold.WallMs = float64(time.Since(g.started).Microseconds()) / 1000
+	}
 	t = time.Now()
 	g.persist()
 	g.publish()
@@ -239,6 +252,15 @@ type appState struct {
 	Screen    [2]int                 `json:"screen"`
 	Timing    map[string]float64     `json:"timing_ms"`
 	Updates   int                    `json:"updates"`
+	Cold      coldStart              `json:"cold_start"`
+}
+
+// coldStart measures the way to the first answer: frames, the time spent
+// on the session's jobs in them, and the time since the program started.
+type coldStart struct {
+	Updates int     `json:"updates"`
+	StepMs  float64 `json:"step_ms"`
+	WallMs  float64 `json:"wall_ms"`
 }
 
 type overlayStateJSON struct {
@@ -250,7 +272,7 @@ type overlayStateJSON struct {
 func (g *game) publish() {
 	o := g.s.Overlay()
 	st := appState{Snapshot: g.s.Snapshot(), Ready: g.ready, Draws: g.draws, FPS: ebiten.ActualFPS(), MouseDown: g.in.leftDown,
-		Editing: g.ui.edit.field, Notice: g.ui.notice, Work: g.progress.Job, Widgets: g.widgets, Screen: [2]int{g.w, g.h}, Timing: g.timing, Updates: g.updates,
+		Editing: g.ui.edit.field, Notice: g.ui.notice, Work: g.progress.Job, Widgets: g.widgets, Screen: [2]int{g.w, g.h}, Timing: g.timing, Updates: g.updates, Cold: g.cold,
 		Overlay: overlayStateJSON{On: o.Enabled, Frac: o.Frac, Done: o.Done}}
 	data, err := json.Marshal(st)
 	if err != nil {
@@ -264,6 +286,15 @@ func (g *game) Draw(dst *ebiten.Image) {
 	if g.w == 0 {
 		return
 	}
+	// Draw only when something on screen would change: the screen keeps
+	// the last frame (SetScreenClearedEveryFrame(false)), and the software
+	// renderer of a machine without a GPU is spared a full redraw sixty
+	// times a second.
+	key := g.frameKey()
+	if key == g.lastFrame && g.draws > 0 {
+		return
+	}
+	g.lastFrame = key
 	dst.Fill(colBackground)
 	t := time.Now()
 	lap := func(name string) {
@@ -288,4 +319,34 @@ func (g *game) Draw(dst *ebiten.Image) {
 	if _, fresh, _ := g.s.Prediction(); fresh && !g.ready {
 		g.ready = true
 	}
+}
+
+// frameKey sums up everything the screen shows; equal keys, equal frames.
+func (g *game) frameKey() string {
+	pr, fresh, err := g.s.Prediction()
+	spec, rigErr := g.s.Rig()
+	at, follow := g.s.At()
+	o := g.s.Overlay()
+	lengths, day, night, wdone := g.s.Wire()
+	known := 0
+	for i := range day {
+		if day[i] != -1 {
+			known++
+		}
+		if night[i] != -1 {
+			known++
+		}
+	}
+	dp := g.s.Day()
+	dayKnown := 0
+	for _, v := range dp.FieldDB {
+		if v == v {
+			dayKnown++
+		}
+	}
+	settled := time.Since(g.lastView) > 150*time.Millisecond
+	return fmt.Sprint(g.w, g.h, g.view.CentreLat, g.view.CentreLon, g.view.PxPerDeg, g.base.dirty && settled, g.base.at != at,
+		pr != nil, fmt.Sprintf("%p", pr), fresh, err, spec, rigErr, at, follow, g.s.Selected(), g.s.Spot(),
+		fmt.Sprintf("%p", o.Shown), o.Done, o.Err, o.Enabled, g.ui, len(lengths), known, wdone, dp.StationID, dp.Start, dayKnown,
+		g.progress.Job, int(100*g.progress.Done), g.in.leftDown)
 }
