@@ -8,7 +8,7 @@ WASMEXEC  = $(shell $(GO) env GOROOT)/lib/wasm/go_js_wasm_exec
 # The browser app's web files; make app writes its build outputs here.
 SITE      = wasm/site/static
 
-.PHONY: run app dist test fmt vet unit fuzz wasm bench bench-wasm
+.PHONY: run app dist test fmt vet unit fuzz wasm e2e bench bench-wasm
 
 ## run: build the browser app and serve it on http://127.0.0.1:8417/
 run: app
@@ -60,6 +60,11 @@ wasm:
 	  echo "GOOS=js GOARCH=wasm $(GO) build -o /dev/null ./wasm/app"; \
 	  GOOS=js GOARCH=wasm $(GO) build -o /dev/null ./wasm/app; \
 	fi
+
+## e2e: the browser app end to end in headless Chromium (skips without it)
+# The test runs make app itself, which go test's cache cannot see: -count=1.
+e2e:
+	$(GO) test -count=1 -v ./wasm/e2e/
 
 ## bench: native benchmarks of the hot paths
 bench:
