@@ -28,7 +28,14 @@ type Planner struct {
 	gainHorz []float64 // per station, G_V at the horizon
 	traps    map[trapKey]*Trap
 	sel      [][]float64 // rig response at station j when tuned to i
+	pause    func()      // called between the rig evaluations of a table (may be nil)
 }
+
+// SetPause sets a function called between the rig evaluations that make
+// up the table of one frequency (each a fraction of a millisecond to a few
+// milliseconds). A single-threaded caller that works in a goroutine
+// (WebAssembly) yields there; planners made by WithRig inherit it.
+func (p *Planner) SetPause(pause func()) { p.pause = pause }
 
 // trapKey identifies a trap design: the two frequencies and the
 // attenuation needed, rounded up to a whole 2 dB.
@@ -153,6 +160,9 @@ func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
 	ct = &chainTable{lo: tableLoDBuVm, step: tableStepDBuVm}
 	var firstErr error
 	for e := tableLoDBuVm; e <= tableHiDBuVm+1e-9; e += tableStepDBuVm {
+		if p.pause != nil {
+			p.pause()
+		}
 		rc, err := p.rig.Receive(f, e)
 		if err != nil {
 			firstErr = err

@@ -693,7 +693,7 @@ func (p *Planner) WithRig(spec receiver.RigSpec) (*Planner, error) {
 	if err != nil {
 		return nil, err
 	}
-	q.curves = p.curves
+	q.curves, q.pause = p.curves, p.pause
 	return q, nil
 }
 

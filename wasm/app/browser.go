@@ -160,3 +160,12 @@ func hookPublish(state string, draws int, ready bool, project func(lat, lon floa
 		js.Global().Set("earshot_ready", true)
 	}
 }
+
+// navMs returns milliseconds since the page's navigation began
+// (performance.now()).
+func navMs() float64 {
+	if p := js.Global().Get("performance"); p.Truthy() {
+		return p.Call("now").Float()
+	}
+	return 0
+}

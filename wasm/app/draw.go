@@ -121,6 +121,7 @@ func groundColour(gr propagation.Ground) (r, g, b uint8) {
 // at half resolution and rebuilt when the view or the hour settles.
 type baseMap struct {
 	img   *ebiten.Image
+	veil  *ebiten.Image // night
 	view  screen.Viewport
 	at    time.Time
 	dirty bool
@@ -130,6 +131,8 @@ type baseMap struct {
 const baseScale = 2 // screen pixels per base pixel
 
 func (g *game) rebuildBase() {
+	t0 := time.Now()
+	defer func() { g.timing["base"] = float64(time.Since(t0).Microseconds()) / 1000 }()
 	w, h := int(g.lay.Map.W)/baseScale+1, int(g.lay.Map.H)/baseScale+1
 	if g.base.img == nil || g.base.img.Bounds().Dx() != w || g.base.img.Bounds().Dy() != h {
 		g.base.img = ebiten.NewImage(w, h)
@@ -137,44 +140,35 @@ func (g *game) rebuildBase() {
 	}
 	at, _ := g.s.At()
 	v := g.view
-	// Solar elevation on a coarse lattice (every 8 base pixels), bilinear
-	// between: the terminator is smooth at this scale.
-	const cs = 8
-	cw, ch := w/cs+2, h/cs+2
-	elev := make([]float64, cw*ch)
-	for j := range ch {
-		for i := range cw {
-			lat, lon := v.ToMap(v.Area.X+float64(i*cs*baseScale), v.Area.Y+float64(j*cs*baseScale))
-			e, err := propagation.SolarElevationDeg(at, math.Max(-90, math.Min(90, lat)), wrapLon(lon))
-			if err != nil {
-				e = 90
-			}
-			elev[j*cw+i] = e
-		}
+	bv := v // the view in base pixels
+	bv.Area = screen.Rect{W: float64(w * baseScale), H: float64(h * baseScale)}
+	bv.PxPerDeg /= baseScale
+	bv.Area.W /= baseScale
+	bv.Area.H /= baseScale
+	// Land and sea from the world mask, pixel by pixel, with the
+	// coastline dark where they meet.
+	seaR, seaG, seaB := groundColour(propagation.Ground{SigmaSPerM: 5, EpsR: 70})
+	sc, _ := g.s.Scenario()
+	landGround, err := propagation.ParseGround(sc.LandGround)
+	if err != nil {
+		landGround = propagation.Ground{SigmaSPerM: 0.003, EpsR: 22}
 	}
+	lr, lg, lb := groundColour(landGround)
 	land := make([]bool, w*h)
 	for y := range h {
 		for x := range w {
-			lat, lon := v.ToMap(v.Area.X+float64(x*baseScale)+1, v.Area.Y+float64(y*baseScale)+1)
+			lat, lon := bv.ToMap(float64(x)+0.5, float64(y)+0.5)
 			lat, lon = math.Max(-89.99, math.Min(89.99, lat)), wrapLon(lon)
-			gr := g.s.Ground(lat, lon)
-			r, gg, b := groundColour(gr)
-			land[y*w+x] = gr.SigmaSPerM < 1
-			// Night: darker and bluer below the horizon, through twilight
-			// (sun 0° to −12°).
-			fx, fy := float64(x)/cs, float64(y)/cs
-			i0, j0 := int(fx), int(fy)
-			u, t := fx-float64(i0), fy-float64(j0)
-			e := (1-u)*(1-t)*elev[j0*cw+i0] + u*(1-t)*elev[j0*cw+i0+1] + (1-u)*t*elev[(j0+1)*cw+i0] + u*t*elev[(j0+1)*cw+i0+1]
-			k := 1.0
-			if e < 0 {
-				k = 1 - 0.45*math.Min(1, -e/12)
-			}
+			isLand := g.mask.IsLand(lat, lon)
+			land[y*w+x] = isLand
 			p := g.base.pix[4*(y*w+x):]
-			p[0], p[1], p[2], p[3] = uint8(float64(r)*k), uint8(float64(gg)*k), uint8(math.Min(255, float64(b)*k+(1-k)*40)), 255
+			if isLand {
+				p[0], p[1], p[2], p[3] = lr, lg, lb, 255
+			} else {
+				p[0], p[1], p[2], p[3] = seaR, seaG, seaB, 255
+			}
 		}
 	}
-	// Coastline: a dark pixel where land meets sea.
 	for y := 1; y < h; y++ {
 		for x := 1; x < w; x++ {
 			if land[y*w+x] != land[y*w+x-1] || land[y*w+x] != land[(y-1)*w+x] {
@@ -184,7 +178,73 @@ func (g *game) rebuildBase() {
 		}
 	}
 	g.base.img.WritePixels(g.base.pix)
+	// The scenario's ground regions, filled in file order (a later region
+	// overrides an earlier one, as in the planner) and outlined.
+	for _, r := range sc.GroundRegions {
+		gr, err := propagation.ParseGround(r.Ground)
+		if err != nil || len(r.Polygon) < 3 {
+			continue
+		}
+		var path vector.Path
+		for i, p := range r.Polygon {
+			x, y := bv.ToScreen(p[0], p[1])
+			if i == 0 {
+				path.MoveTo(float32(x), float32(y))
+			} else {
+				path.LineTo(float32(x), float32(y))
+			}
+		}
+		path.Close()
+		cr, cg, cb := groundColour(gr)
+		vs, is := path.AppendVerticesAndIndicesForFilling(nil, nil)
+		drawShape(g.base.img, vs, is, color.RGBA{cr, cg, cb, 255}, ebiten.FillRuleEvenOdd)
+		vs, is = path.AppendVerticesAndIndicesForStroke(nil, nil, &vector.StrokeOptions{Width: 1})
+		drawShape(g.base.img, vs, is, color.RGBA{cr / 2, cg / 2, cb / 2, 255}, ebiten.FillRuleFillAll)
+	}
+	// Night: the sun's elevation on a coarse lattice (every 8 base pixels),
+	// as a dark blue veil through twilight (sun 0° to −12°), scaled up
+	// smoothly over the ground.
+	const cs = 8
+	cw, ch := w/cs+2, h/cs+2
+	veil := make([]byte, 4*cw*ch)
+	for j := range ch {
+		for i := range cw {
+			lat, lon := bv.ToMap(float64(i*cs), float64(j*cs))
+			e, err := propagation.SolarElevationDeg(at, math.Max(-90, math.Min(90, lat)), wrapLon(lon))
+			if err != nil || e >= 0 {
+				continue
+			}
+			a := 0.45 * math.Min(1, -e/12)
+			p := veil[4*(j*cw+i):]
+			p[0], p[1], p[2], p[3] = 0, 0, uint8(30*a), uint8(255*a) // premultiplied
+		}
+	}
+	if g.base.veil == nil || g.base.veil.Bounds().Dx() != cw || g.base.veil.Bounds().Dy() != ch {
+		g.base.veil = ebiten.NewImage(cw, ch)
+	}
+	g.base.veil.WritePixels(veil)
+	op := &ebiten.DrawImageOptions{}
+	op.GeoM.Scale(cs, cs)
+	op.Filter = ebiten.FilterLinear
+	g.base.img.DrawImage(g.base.veil, op)
 	g.base.view, g.base.at, g.base.dirty = v, at, false
+}
+
+// white is a one-pixel white source for drawing shapes.
+var white = func() *ebiten.Image {
+	img := ebiten.NewImage(3, 3)
+	img.Fill(color.White)
+	return img.SubImage(image.Rect(1, 1, 2, 2)).(*ebiten.Image)
+}()
+
+// drawShape draws triangles (from a vector.Path) in one colour.
+func drawShape(dst *ebiten.Image, vs []ebiten.Vertex, is []uint16, c color.RGBA, rule ebiten.FillRule) {
+	for i := range vs {
+		vs[i].SrcX, vs[i].SrcY = 1, 1
+		vs[i].ColorR, vs[i].ColorG, vs[i].ColorB, vs[i].ColorA = float32(c.R)/255, float32(c.G)/255, float32(c.B)/255, float32(c.A)/255
+	}
+	op := &ebiten.DrawTrianglesOptions{FillRule: rule}
+	dst.DrawTriangles(vs, is, white, op)
 }
 
 func wrapLon(lon float64) float64 {
@@ -400,10 +460,10 @@ func (g *game) drawTop(dst *ebiten.Image) {
 		g.button(dst, b.name, b.caption, screen.Rect{X: x, Y: t.Y + 4, W: w, H: t.H - 8}, b.name == "top.overlay" && g.ui.overlayOn)
 	}
 	// Work in progress.
-	if g.progress.Job != "" {
-		msg := "working: " + g.progress.Job
-		if g.progress.Done > 0 {
-			msg += fmt.Sprintf(" %.0f%%", 100*g.progress.Done)
+	if p := g.shownProgress; p.Job != "" {
+		msg := "working: " + p.Job
+		if p.Done > 0 {
+			msg += fmt.Sprintf(" %.0f%%", 100*p.Done)
 		}
 		g.label(dst, msg, x-text.Advance(msg, g.small)-12, t.Y+9, g.small, colDim)
 	}
@@ -463,11 +523,7 @@ func (g *game) drawSafety(dst *ebiten.Image) {
 // offscreen image redrawn only when what it shows changes.
 func (g *game) drawSide(dst *ebiten.Image) {
 	s := g.lay.Side
-	pr, fresh, err := g.s.Prediction()
-	spec, rigErr := g.s.Rig()
-	at, follow := g.s.At()
-	key := fmt.Sprintf("%p %v %v|%+v %v|%v %v|%v %v %d %s %s %s %s|%s %v", pr, fresh, err, spec, rigErr, at, follow,
-		g.ui.sortCol, g.ui.sortAsc, g.ui.scroll, g.ui.edit.field, g.ui.edit.buf, g.ui.rigMsg, g.s.Selected(), g.s.Spot().Name, s)
+	key := g.sideKeyNow()
 	if g.side == nil || g.side.Bounds().Dx() != g.w || g.side.Bounds().Dy() != g.h {
 		g.side = ebiten.NewImage(g.w, g.h)
 		g.sideKey = ""
@@ -480,6 +536,15 @@ func (g *game) drawSide(dst *ebiten.Image) {
 	op := &ebiten.DrawImageOptions{}
 	op.GeoM.Translate(s.X, s.Y)
 	dst.DrawImage(g.side.SubImage(imageRect(s)).(*ebiten.Image), op)
+}
+
+// sideKeyNow sums up what the side panel shows.
+func (g *game) sideKeyNow() string {
+	pr, fresh, err := g.s.Prediction()
+	spec, rigErr := g.s.Rig()
+	at, follow := g.s.At()
+	return fmt.Sprintf("%p %v %v|%+v %v|%v %v|%v %v %d %s %s %s %s|%s %v", pr, fresh, err, spec, rigErr, at, follow,
+		g.ui.sortCol, g.ui.sortAsc, g.ui.scroll, g.ui.edit.field, g.ui.edit.buf, g.ui.rigMsg, g.s.Selected(), g.s.Spot().Name, g.lay.Side)
 }
 
 func (g *game) drawSidePanel(dst *ebiten.Image) {

@@ -31,7 +31,7 @@ import (
 // Frame budgets for the session's jobs: generous until the first answer
 // is on screen, then small enough to keep drawing at full rate.
 const (
-	coldBudget = 40 * time.Millisecond
+	coldBudget = 100 * time.Millisecond
 	warmBudget = 9 * time.Millisecond
 	// overlaySlice is how long the overlay's goroutine works between
 	// sleeps.
@@ -54,33 +54,37 @@ type game struct {
 	widgets  map[string]screen.Rect
 	progress session.Progress
 
+	shownProgress session.Progress // the progress the top bar shows
+	progressShown time.Time
+
 	base      baseMap
 	side      *ebiten.Image
 	sideKey   string
 	plots     plotCache
 	ovl       overlayCache
 	lastView  time.Time // last pan or zoom
-	lastSave  time.Time
 	savedJSON string
 
-	draws     int
-	updates   int
-	started   time.Time // when main began
-	lastFrame string    // frameKey of the frame on screen
-	cold      coldStart
-	ready     bool
-	timing    map[string]float64 // smoothed milliseconds per part of a tick
+	draws   int
+	updates int
+	started time.Time // when main began
+	frames  frameKeys // what is on screen
+	cold    coldStart
+	ready   bool
+	timing  map[string]float64 // smoothed milliseconds per part of a tick
 }
 
 // started is when the program began.
 var started = time.Now()
 
 func main() {
+	navStart := navMs()
 	installHook()
 	g, err := newGame()
 	if err != nil {
 		log.Fatal(err)
 	}
+	g.cold.NavStartMs = navStart
 	ebiten.SetWindowTitle("earshot — what will the crystal set hear?")
 	ebiten.SetRunnableOnUnfocused(true)
 	// One Update per frame: the app is not a simulation that must catch up,
@@ -105,11 +109,14 @@ func newGame() (*game, error) {
 	// The overlay is worked out in a goroutine; on the browser's single
 	// thread it must sleep now and then for the page to draw (a sleep hands
 	// control back to the browser until its timer fires).
-	var slice time.Time
+	slice := time.Now()
 	s.SetYield(func() {
-		if time.Since(slice) > overlaySlice {
+		if work := time.Since(slice); work > overlaySlice {
+			t := time.Now()
 			time.Sleep(time.Millisecond)
 			slice = time.Now()
+			g.timing["overlay_work"] = 0.9*g.timing["overlay_work"] + 0.1*float64(work.Microseconds())/1000
+			g.timing["overlay_sleep"] = 0.9*g.timing["overlay_sleep"] + 0.1*float64(slice.Sub(t).Microseconds())/1000
 		}
 	})
 	g.ui.sortCol, g.ui.overlayOn = colMargin, true
@@ -220,13 +227,10 @@ func dist(lat1, lon1, lat2, lon2 float64) float64 {
 	return 2 * 6371 * math.Asin(math.Min(1, math.Sqrt(a)))
 }
 
-// persist saves the listener's choices when they change (at most twice a
-// second).
+// persist saves the listener's choices as soon as they change (the
+// saved form is small; writing it only when it differs keeps storage
+// quiet), so a reload right after a change keeps it.
 func (g *game) persist() {
-	if time.Since(g.lastSave) < 500*time.Millisecond {
-		return
-	}
-	g.lastSave = time.Now()
 	data, err := g.s.Save()
 	if err != nil {
 		return
@@ -261,6 +265,12 @@ type coldStart struct {
 	Updates int     `json:"updates"`
 	StepMs  float64 `json:"step_ms"`
 	WallMs  float64 `json:"wall_ms"`
+	// Milliseconds from the page's navigation (performance.now) to the
+	// program's start, to its first frame (interactive: the map and the
+	// panels respond) and to the first results on screen.
+	NavStartMs      float64 `json:"nav_start_ms"`
+	NavFirstFrameMs float64 `json:"nav_first_frame_ms"`
+	NavReadyMs      float64 `json:"nav_ready_ms"`
 }
 
 type overlayStateJSON struct {
@@ -286,48 +296,84 @@ func (g *game) Draw(dst *ebiten.Image) {
 	if g.w == 0 {
 		return
 	}
-	// Draw only when something on screen would change: the screen keeps
-	// the last frame (SetScreenClearedEveryFrame(false)), and the software
-	// renderer of a machine without a GPU is spared a full redraw sixty
-	// times a second.
-	key := g.frameKey()
-	if key == g.lastFrame && g.draws > 0 {
-		return
+	if g.cold.NavFirstFrameMs == 0 {
+		g.cold.NavFirstFrameMs = navMs()
 	}
-	g.lastFrame = key
-	dst.Fill(colBackground)
+	// Draw only the regions whose content changed: the screen keeps the
+	// last frame (SetScreenClearedEveryFrame(false)), and the software
+	// renderer of a machine without a GPU is spared full redraws (a full
+	// 1280×800 frame costs it tens of milliseconds).
+	mk, sk, tk := g.mapKey(), g.sideKeyNow(), g.topKey()
+	full := g.draws == 0 || g.ui.safety != g.frames.safety || g.w != g.frames.w || g.h != g.frames.h
+	if g.ui.safety && !full {
+		return // the safety note covers everything
+	}
 	t := time.Now()
 	lap := func(name string) {
 		now := time.Now()
 		g.timing[name] = 0.8*g.timing[name] + 0.2*float64(now.Sub(t).Microseconds())/1000
 		t = now
 	}
-	g.drawMap(dst)
-	lap("map")
-	g.drawSide(dst)
-	lap("side")
-	g.drawTop(dst)
-	g.drawPlots(dst)
-	lap("plots")
-	g.drawCard(dst)
-	g.drawNotice(dst)
-	lap("card")
+	drew := false
+	if full || mk != g.frames.mapKey {
+		fillRect(dst, g.lay.Map, colBackground)
+		g.drawMap(dst)
+		g.drawPlots(dst)
+		g.drawCard(dst)
+		g.drawNotice(dst)
+		lap("map")
+		drew = true
+	}
+	if full || sk != g.frames.sideKey {
+		g.drawSide(dst)
+		lap("side")
+		drew = true
+	}
+	if full || tk != g.frames.topKey {
+		g.drawTop(dst)
+		lap("top")
+		drew = true
+	}
 	if g.ui.safety {
 		g.drawSafety(dst)
 	}
-	g.draws++
-	if _, fresh, _ := g.s.Prediction(); fresh && !g.ready {
+	g.frames = frameKeys{mapKey: mk, sideKey: sk, topKey: tk, safety: g.ui.safety, w: g.w, h: g.h}
+	if drew {
+		g.draws++
+	}
+	if _, fresh, _ := g.s.Prediction(); fresh && !g.ready && drew {
 		g.ready = true
+		g.cold.NavReadyMs = navMs()
 	}
 }
 
-// frameKey sums up everything the screen shows; equal keys, equal frames.
-func (g *game) frameKey() string {
-	pr, fresh, err := g.s.Prediction()
-	spec, rigErr := g.s.Rig()
-	at, follow := g.s.At()
+// frameKeys are the keys of the regions on screen.
+type frameKeys struct {
+	mapKey, sideKey, topKey string
+	safety                  bool
+	w, h                    int
+}
+
+// topKey sums up the top bar: scenario, buttons, work in progress (in
+// steps of 5 %).
+// The progress shown changes at most twice a second: each redraw costs a
+// full present of the canvas.
+func (g *game) topKey() string {
+	sc, src := g.s.Scenario()
+	if time.Since(g.progressShown) > 500*time.Millisecond || (g.progress.Job == "") != (g.shownProgress.Job == "") {
+		g.shownProgress, g.progressShown = g.progress, time.Now()
+	}
+	return fmt.Sprint(sc.Name, src, g.ui.overlayOn, g.shownProgress.Job, int(20*g.shownProgress.Done))
+}
+
+// mapKey sums up the map region (with the plots, the card and the
+// notice drawn over it); equal keys, equal pictures.
+func (g *game) mapKey() string {
+	pr, _, _ := g.s.Prediction()
+	at, _ := g.s.At()
 	o := g.s.Overlay()
 	lengths, day, night, wdone := g.s.Wire()
+	spec, _ := g.s.Rig()
 	known := 0
 	for i := range day {
 		if day[i] != -1 {
@@ -345,8 +391,8 @@ func (g *game) frameKey() string {
 		}
 	}
 	settled := time.Since(g.lastView) > 150*time.Millisecond
-	return fmt.Sprint(g.w, g.h, g.view.CentreLat, g.view.CentreLon, g.view.PxPerDeg, g.base.dirty && settled, g.base.at != at,
-		pr != nil, fmt.Sprintf("%p", pr), fresh, err, spec, rigErr, at, follow, g.s.Selected(), g.s.Spot(),
-		fmt.Sprintf("%p", o.Shown), o.Done, o.Err, o.Enabled, g.ui, len(lengths), known, wdone, dp.StationID, dp.Start, dayKnown,
-		g.progress.Job, int(100*g.progress.Done), g.in.leftDown)
+	return fmt.Sprint(g.view.CentreLat, g.view.CentreLon, g.view.PxPerDeg, g.base.dirty && settled, g.base.at != at,
+		fmt.Sprintf("%p", pr), spec.WireM, g.s.Selected(), g.s.Spot(),
+		fmt.Sprintf("%p", o.Shown), o.Done, o.Err, o.Enabled, g.ui.overlayOn, g.ui.notice,
+		len(lengths), known, wdone, dp.StationID, dp.Start, dayKnown)
 }

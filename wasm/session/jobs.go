@@ -2,6 +2,7 @@ package session
 
 import (
 	"math"
+	"slices"
 	"sync"
 	"sync/atomic"
 	"time"
@@ -154,85 +155,118 @@ func (o *overlayJob) step(s *Session, more Budget) (Progress, bool) {
 }
 
 // wireJob counts the audible stations by day and at night for each wire
-// length of plan.WireLengthsM at the current spot, height and rig.
+// length of plan.WireLengthsM at the current spot, height and rig. Each
+// length needs the rig's response worked out afresh (about a second of
+// WebAssembly for the whole band), so the sweep runs in a goroutine of its
+// own which, like the overlay's, yields through the session's yield.
 type wireJob struct {
-	stale      bool
+	stale bool
+	gen   int
+	stop  atomic.Int64
+	dayAt time.Time // local noon of the sweep's day
+
+	mu         sync.Mutex // guards the fields below, written by the worker
+	running    bool
 	lengthsM   []float64
-	heightM    float64
 	day, night []int // −1: not yet known; −2: that rig cannot be built
-	i          int
-	q          *plan.Planner
-	dayAt      time.Time // local noon of the sweep's day
+	done       int   // lengths finished
 }
 
 func (w *wireJob) pending(s *Session) bool {
 	if day, _ := plan.DayAndNight(s.at, s.spot); !day.Equal(w.dayAt) {
 		w.stale = true
 	}
-	return w.stale || w.i < len(w.lengthsM)
+	w.mu.Lock()
+	defer w.mu.Unlock()
+	return w.stale || w.running || w.done < len(w.lengthsM)
 }
 
 // Wire returns the wire sweep so far: lengths (m) and day and night
 // counts (−1 where not yet known, −2 where that rig is invalid).
 func (s *Session) Wire() (lengthsM []float64, day, night []int, done bool) {
-	w := &s.wire
-	return w.lengthsM, w.day, w.night, !w.pending(s)
+	w := s.wire
+	w.mu.Lock()
+	defer w.mu.Unlock()
+	return w.lengthsM, slices.Clone(w.day), slices.Clone(w.night), !w.stale && !w.running && w.done == len(w.lengthsM)
 }
 
 func (w *wireJob) step(s *Session, more Budget) (Progress, bool) {
-	if w.stale {
-		w.stale, w.i, w.q = false, 0, nil
-		w.lengthsM = plan.WireLengthsM(s.planner.Spec().WireM)
-		w.heightM = s.planner.Spec().HeightM
-		w.dayAt, _ = plan.DayAndNight(s.at, s.spot)
-		w.day, w.night = make([]int, len(w.lengthsM)), make([]int, len(w.lengthsM))
-		for i := range w.day {
-			w.day[i], w.night[i] = -1, -1
+	w.mu.Lock()
+	running, done, n := w.running, w.done, len(w.lengthsM)
+	w.mu.Unlock()
+	if !w.stale {
+		if running {
+			return Progress{Job: JobWire, Done: float64(done) / float64(max(n, 1))}, false
 		}
-	}
-	for w.i < len(w.lengthsM) {
-		if w.q == nil {
-			spec := plan.SpecWithWire(s.planner.Spec(), w.lengthsM[w.i], w.heightM)
-			if spec == s.planner.Spec() {
-				w.q = s.planner
-			} else if q, err := s.planner.WithRig(spec); err == nil {
-				w.q = q
-			} else {
-				w.day[w.i], w.night[w.i] = -2, -2
-				w.i++
-				continue
-			}
-		}
-		done, err := w.q.Prepare(s.spot, more)
-		if err != nil {
-			w.day[w.i], w.night[w.i] = -2, -2
-			w.i, w.q = w.i+1, nil
-			continue
-		}
-		if !done {
-			break
-		}
-		day, night := w.dayAt, w.dayAt.Add(12*time.Hour)
-		for _, c := range []struct {
-			at  time.Time
-			out *int
-		}{{day, &w.day[w.i]}, {night, &w.night[w.i]}} {
-			pr, err := w.q.Predict(s.spot, c.at)
-			if err != nil {
-				*c.out = -2
-				continue
-			}
-			*c.out = pr.Audible()
-		}
-		w.i, w.q = w.i+1, nil
-		if !more() {
-			break
-		}
-	}
-	if w.i == len(w.lengthsM) {
 		return Progress{}, true
 	}
-	return Progress{Job: JobWire, Done: float64(w.i) / float64(len(w.lengthsM))}, false
+	if running { // a stale sweep still stopping
+		w.stop.Store(-1)
+		return Progress{Job: JobWire}, false
+	}
+	w.stale = false
+	w.gen++
+	gen := w.gen
+	w.stop.Store(int64(gen))
+	w.dayAt, _ = plan.DayAndNight(s.at, s.spot)
+	lengths := plan.WireLengthsM(s.planner.Spec().WireM)
+	w.mu.Lock()
+	w.lengthsM, w.done, w.running = lengths, 0, true
+	w.day, w.night = make([]int, len(lengths)), make([]int, len(lengths))
+	for i := range w.day {
+		w.day[i], w.night[i] = -1, -1
+	}
+	w.mu.Unlock()
+	base, spot, heightM, dayAt, yield := s.planner, s.spot, s.planner.Spec().HeightM, w.dayAt, s.yield
+	go func() {
+		defer func() {
+			w.mu.Lock()
+			w.running = false
+			w.mu.Unlock()
+		}()
+		stopped := func() bool { return w.stop.Load() != int64(gen) }
+		more := func() bool {
+			if yield != nil {
+				yield()
+			}
+			return !stopped()
+		}
+		for i, l := range lengths {
+			d, n := -2, -2
+			spec := plan.SpecWithWire(base.Spec(), l, heightM)
+			q := base
+			if spec != base.Spec() {
+				var err error
+				if q, err = base.WithRig(spec); err != nil {
+					q = nil
+				} else {
+					q.SetPause(yield) // this planner is the worker's alone
+				}
+			}
+			if q != nil {
+				ok, err := q.Prepare(spot, more)
+				if stopped() {
+					return
+				}
+				if ok && err == nil {
+					if pr, err := q.Predict(spot, dayAt); err == nil {
+						d = pr.Audible()
+					}
+					if pr, err := q.Predict(spot, dayAt.Add(12*time.Hour)); err == nil {
+						n = pr.Audible()
+					}
+				}
+			}
+			w.mu.Lock()
+			if stopped() {
+				w.mu.Unlock()
+				return
+			}
+			w.day[i], w.night[i], w.done = d, n, i+1
+			w.mu.Unlock()
+		}
+	}()
+	return Progress{Job: JobWire}, false
 }
 
 // DayPoints is the number of points of the selected station's day plot

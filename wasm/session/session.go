@@ -44,7 +44,7 @@ type Session struct {
 	predBusy bool
 
 	overlay *overlayJob
-	wire    wireJob
+	wire    *wireJob
 	hours   hourJob
 
 	now   func() time.Time
@@ -58,7 +58,7 @@ func New(isLand func(lat, lon float64) bool) (*Session, error) {
 	if err != nil {
 		return nil, err
 	}
-	s := &Session{isLand: isLand, now: func() time.Time { return time.Now().UTC() }, followNow: true, overlay: new(overlayJob)}
+	s := &Session{isLand: isLand, now: func() time.Time { return time.Now().UTC() }, followNow: true, overlay: new(overlayJob), wire: new(wireJob)}
 	if err := s.setScenario(sc, "demo"); err != nil {
 		return nil, err
 	}
