@@ -34,8 +34,9 @@ dist: app
 	@mkdir -p dist
 	$(GO) run ./cmd/earshot dist --out dist/earshot.html
 
-## test: formatting, vet, all tests, short fuzz runs, and the WebAssembly build
-test: fmt vet unit fuzz wasm
+## test: formatting, vet, all tests, short fuzz runs, the WebAssembly
+## build, and the browser app end to end
+test: fmt vet unit fuzz wasm e2e
 
 fmt:
 	@bad=$$(gofmt -l $(GOFILES)); \
@@ -44,8 +45,9 @@ fmt:
 vet:
 	$(GO) vet ./...
 
+# Every package but the browser test, which e2e runs on its own.
 unit:
-	$(GO) test ./...
+	$(GO) test $$($(GO) list ./... | grep -v /wasm/e2e)
 
 # Short fuzz runs of the file parsers (fixed counts: a time limit can trip
 # a known go-test fuzzing deadline bug on Go 1.26).
