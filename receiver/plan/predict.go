@@ -130,10 +130,17 @@ type chainTable struct {
 	minDBuVm  float64 // weakest audible field (+Inf if none)
 	limit     string  // what limits when nothing is audible
 	lo, step  float64
-	marginDB  []float64
-	spline    interp.AkimaSpline // margin against field, through marginDB
-	snrOffset float64            // S/N = E − snrOffset (external noise)
-	ampSNR    []float64
+	snrOffset float64 // S/N = E − snrOffset (external noise)
+
+	// The table grows on demand (see extend): mu guards it.
+	mu       sync.Mutex
+	marginDB []float64
+	spline   interp.AkimaSpline // margin against field, through marginDB
+	ampSNR   []float64
+	closed   bool // no more rows: the top of the grid or of the detector model
+	rig      receiver.Rig
+	f        propagation.KHz
+	pause    func()
 }
 
 // Field grid of a chain table: −20 … 100 dB(µV/m) every 5 dB (the margin
@@ -143,11 +150,14 @@ type chainTable struct {
 // 1 dB per dB (linear detection); the chain's own slope there is 0.9–1,
 // so the extension overstates the margin by at most 1 dB at 120 dB(µV/m).
 // The detector is slowest to solve at those levels: ending the table at
-// 100 halves the cost of a rig's first prediction.
+// 100 halves the cost of a rig's first prediction. Rows above
+// tableEagerDBuVm are computed only when a station's field needs them
+// (extend), which saves most of the rest.
 const (
-	tableLoDBuVm   = -20.0
-	tableHiDBuVm   = 100.0
-	tableStepDBuVm = 5.0
+	tableLoDBuVm    = -20.0
+	tableHiDBuVm    = 100.0
+	tableStepDBuVm  = 5.0
+	tableEagerDBuVm = 70.0
 )
 
 func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
@@ -157,28 +167,8 @@ func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
 	if ok {
 		return ct, nil
 	}
-	ct = &chainTable{lo: tableLoDBuVm, step: tableStepDBuVm}
-	var firstErr error
-	for e := tableLoDBuVm; e <= tableHiDBuVm+1e-9; e += tableStepDBuVm {
-		if p.pause != nil {
-			p.pause()
-		}
-		rc, err := p.rig.Receive(f, e)
-		if err != nil {
-			firstErr = err
-			break // beyond the detector model's range: the table ends here
-		}
-		if len(ct.marginDB) == 0 {
-			ct.front = rc.Front
-			ct.snrOffset = rc.NoiseDBuVm - 20*math.Log10(p.modulation())
-		}
-		ct.marginDB = append(ct.marginDB, rc.MarginDB)
-		amp := 200.0 // the amplifier's own noise does not limit
-		if ext := e - ct.snrOffset; rc.SNRDB < ext-1e-9 {
-			amp = rc.SNRDB
-		}
-		ct.ampSNR = append(ct.ampSNR, amp)
-	}
+	ct = &chainTable{lo: tableLoDBuVm, step: tableStepDBuVm, rig: p.rig, f: f, pause: p.pause}
+	firstErr := ct.extend(tableEagerDBuVm)
 	if len(ct.marginDB) < 5 {
 		// The rig cannot follow this frequency at all (for example a wire
 		// near half a wavelength long, whose loading no coil provides):
@@ -188,13 +178,6 @@ func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
 		p.chains[f] = ct
 		p.mu.Unlock()
 		return ct, nil
-	}
-	xs := make([]float64, len(ct.marginDB))
-	for i := range xs {
-		xs[i] = ct.lo + float64(i)*ct.step
-	}
-	if err := ct.spline.Fit(xs, ct.marginDB); err != nil {
-		return nil, err
 	}
 	min, err := p.rig.MinAudibleDBuVm(f)
 	if err != nil {
@@ -211,10 +194,64 @@ func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
 	return ct, nil
 }
 
+// extend computes the table's rows up to field e (at most tableHiDBuVm)
+// and refits the spline; it returns the chain's error if the detector
+// model ends first. The caller holds ct.mu or owns ct.
+func (ct *chainTable) extend(e float64) error {
+	if ct.closed {
+		return nil
+	}
+	top := math.Min(tableHiDBuVm, e)
+	n0 := len(ct.marginDB)
+	var firstErr error
+	for x := ct.lo + float64(n0)*ct.step; x <= top+1e-9; x += ct.step {
+		if ct.pause != nil {
+			ct.pause()
+		}
+		rc, err := ct.rig.Receive(ct.f, x)
+		if err != nil {
+			firstErr = err
+			ct.closed = true // beyond the detector model's range: the table ends here
+			break
+		}
+		if len(ct.marginDB) == 0 {
+			ct.front = rc.Front
+			ct.snrOffset = rc.NoiseDBuVm - 20*math.Log10(modulationOf(ct.rig))
+		}
+		ct.marginDB = append(ct.marginDB, rc.MarginDB)
+		amp := 200.0 // the amplifier's own noise does not limit
+		if ext := x - ct.snrOffset; rc.SNRDB < ext-1e-9 {
+			amp = rc.SNRDB
+		}
+		ct.ampSNR = append(ct.ampSNR, amp)
+	}
+	if ct.lo+float64(len(ct.marginDB)-1)*ct.step >= tableHiDBuVm-1e-9 {
+		ct.closed = true
+	}
+	if len(ct.marginDB) != n0 && len(ct.marginDB) >= 5 {
+		xs := make([]float64, len(ct.marginDB))
+		for i := range xs {
+			xs[i] = ct.lo + float64(i)*ct.step
+		}
+		if err := ct.spline.Fit(xs, ct.marginDB); err != nil {
+			panic("plan: " + err.Error()) // increasing xs always fit
+		}
+	}
+	return firstErr
+}
+
+// cover makes sure the table reaches two rows beyond e (where it can),
+// so that the spline at e rests on computed rows. The caller holds ct.mu.
+func (ct *chainTable) cover(e float64) {
+	if !ct.closed && e+2*ct.step > ct.lo+float64(len(ct.marginDB)-1)*ct.step {
+		ct.extend(math.Ceil((e-ct.lo)/ct.step)*ct.step + ct.lo + 2*ct.step)
+	}
+}
+
 // deadChain is the table of a frequency the rig cannot receive: no field
 // is audible (minDBuVm = +Inf) and the limit says why.
 func deadChain(f propagation.KHz, why error) *chainTable {
-	ct := &chainTable{lo: tableLoDBuVm, step: tableStepDBuVm, minDBuVm: math.Inf(1), front: receiver.Front{KHz: f}}
+	ct := &chainTable{lo: tableLoDBuVm, step: tableStepDBuVm, minDBuVm: math.Inf(1), front: receiver.Front{KHz: f}, closed: true}
 	ct.limit = "the rig cannot be tuned here"
 	if why != nil {
 		ct.limit += ": " + why.Error()
@@ -234,23 +271,29 @@ func deadChain(f propagation.KHz, why error) *chainTable {
 // noMarginDB is the margin and S/N of a station the rig cannot receive.
 const noMarginDB = -200.0
 
-func (p *Planner) modulation() float64 {
-	if p.spec.Modulation > 0 {
-		return p.spec.Modulation
+// modulationOf returns the rig's modulation depth.
+func modulationOf(r receiver.Rig) float64 {
+	if r.Modulation > 0 {
+		return r.Modulation
 	}
 	return receiver.DefaultModulation
 }
 
-// interp interpolates a table column at field e, linearly in dB, holding
-// the end values beyond the table.
-func (ct *chainTable) interp(col []float64, e float64) float64 {
+// snr returns the audio S/N at field e: the external-noise S/N, or the
+// amplifier's where it is lower (interpolated linearly in dB on the table,
+// holding the end values beyond it).
+func (ct *chainTable) snr(e float64) float64 {
+	ct.mu.Lock()
+	defer ct.mu.Unlock()
+	ct.cover(e)
+	col := ct.ampSNR
 	x := math.Max(0, (e-ct.lo)/ct.step)
 	i := int(x)
 	if i >= len(col)-1 {
 		return col[len(col)-1]
 	}
 	fr := x - float64(i)
-	return col[i]*(1-fr) + col[i+1]*fr
+	return math.Min(e-ct.snrOffset, col[i]*(1-fr)+col[i+1]*fr)
 }
 
 // margin returns the audibility margin at field e: an Akima spline
@@ -258,6 +301,9 @@ func (ct *chainTable) interp(col []float64, e float64) float64 {
 // (2 dB per dB; methods.md §7.2) and above it by linear detection (1 dB
 // per dB).
 func (ct *chainTable) margin(e float64) float64 {
+	ct.mu.Lock()
+	defer ct.mu.Unlock()
+	ct.cover(e)
 	hi := ct.lo + float64(len(ct.marginDB)-1)*ct.step
 	switch {
 	case e < ct.lo:
@@ -419,7 +465,7 @@ func (p *Planner) station(i int, s Station, spot Spot, t time.Time) (Heard, erro
 	}
 	h.DetectorDB = h.FieldDB - ct.minDBuVm
 	h.MarginDB = ct.margin(h.FieldDB)
-	h.SNRDB = math.Min(h.FieldDB-ct.snrOffset, ct.interp(ct.ampSNR, h.FieldDB))
+	h.SNRDB = ct.snr(h.FieldDB)
 	h.Audible = h.FieldDB >= ct.minDBuVm
 	h.Chance = propagation.ExceedanceProbability(ct.minDBuVm, g, skyMedian, h.SkyDecile)
 	if math.IsInf(ct.minDBuVm, 1) {
