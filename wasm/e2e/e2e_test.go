@@ -627,6 +627,7 @@ func TestServedApp(t *testing.T) {
 		t.Fatalf("e2e: a fresh browser should start on the embedded demo scenario, got source %q", s.Source)
 	}
 	t.Logf("start: spot %q (%.4f, %.4f), wire %g m, %d stations, %d audible", s.Spot, s.Lat, s.Lon, s.Rig.WireM, len(s.Results), s.Audible)
+	start := s
 
 	// 2. Put the spot on the map with a click, and wait for its answer.
 	lap := time.Now()
@@ -689,6 +690,20 @@ func TestServedApp(t *testing.T) {
 	// 7. A screenshot through the Chrome DevTools Protocol
 	// (Page.captureScreenshot): the canvas must show a drawn app.
 	checkScreenshot(t, tb, "earshot-served-1280x800.png")
+
+	// 8. Corrupted storage: the app starts afresh on the demo's default
+	// spot with a notice, instead of breaking (the issue's requirement).
+	if _, err := eval[any](tb, `localStorage.setItem("earshot.app.state", "{not json"); true`); err != nil {
+		t.Fatalf("e2e: corrupting localStorage: %v", err)
+	}
+	tb.reload()
+	s = tb.waitState("fresh after corrupted storage", stepLimit, func(s appState) bool { return s.Fresh })
+	if !strings.Contains(s.Notice, "could not be read") {
+		t.Errorf("e2e: after corrupted storage the notice is %q, want one saying the saved settings could not be read", s.Notice)
+	}
+	if s.Spot != start.Spot || len(s.Results) == 0 {
+		t.Errorf("e2e: after corrupted storage spot %q with %d results, want the demo's %q", s.Spot, len(s.Results), start.Spot)
+	}
 }
 
 // TestSingleFile opens the single offline page that "earshot dist"
