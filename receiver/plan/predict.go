@@ -138,9 +138,12 @@ type chainTable struct {
 	spline   interp.AkimaSpline // margin against field, through marginDB
 	ampSNR   []float64
 	closed   bool // no more rows: the top of the grid or of the detector model
-	rig      receiver.Rig
-	f        propagation.KHz
-	pause    func()
+	// firstAudible is the first row's field at which the chain is audible
+	// (margin and S/N), or −Inf.
+	firstAudible float64
+	rig          receiver.Rig
+	f            propagation.KHz
+	pause        func()
 }
 
 // Field grid of a chain table: −20 … 100 dB(µV/m) every 5 dB (the margin
@@ -167,7 +170,7 @@ func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
 	if ok {
 		return ct, nil
 	}
-	ct = &chainTable{lo: tableLoDBuVm, step: tableStepDBuVm, rig: p.rig, f: f, pause: p.pause}
+	ct = &chainTable{lo: tableLoDBuVm, step: tableStepDBuVm, rig: p.rig, f: f, pause: p.pause, firstAudible: math.Inf(-1)}
 	firstErr := ct.extend(tableEagerDBuVm)
 	if len(ct.marginDB) < 5 {
 		// The rig cannot follow this frequency at all (for example a wire
@@ -179,7 +182,15 @@ func (p *Planner) chain(f propagation.KHz) (*chainTable, error) {
 		p.mu.Unlock()
 		return ct, nil
 	}
-	min, err := p.rig.MinAudibleDBuVm(f)
+	// The weakest audible field: bisection through the chain, inside the
+	// table's first audible step when there is one.
+	var min float64
+	var err error
+	if ct.firstAudible > ct.lo {
+		min, err = p.rig.MinAudibleWithin(f, ct.firstAudible-ct.step, ct.firstAudible)
+	} else {
+		min, err = p.rig.MinAudibleDBuVm(f)
+	}
 	if err != nil {
 		ct.minDBuVm, ct.limit = math.Inf(1), "nothing audible"
 		if !ct.front.Tunable {
@@ -217,6 +228,9 @@ func (ct *chainTable) extend(e float64) error {
 		if len(ct.marginDB) == 0 {
 			ct.front = rc.Front
 			ct.snrOffset = rc.NoiseDBuVm - 20*math.Log10(modulationOf(ct.rig))
+		}
+		if rc.Audible && math.IsInf(ct.firstAudible, -1) {
+			ct.firstAudible = x
 		}
 		ct.marginDB = append(ct.marginDB, rc.MarginDB)
 		amp := 200.0 // the amplifier's own noise does not limit

@@ -234,8 +234,10 @@ func TestChainTable(t *testing.T) {
 				t.Errorf("%g kHz, %.1f dB(µV/m): extended margin %.3f, chain %.3f", float64(f), e, got, rc.MarginDB)
 			}
 		}
+		// The same bisection as the rig's, in a narrower bracket: within
+		// its 0.01 dB tolerance.
 		m, _ := p.rig.MinAudibleDBuVm(f)
-		if ct.minDBuVm != m {
+		if math.Abs(ct.minDBuVm-m) > 0.01 {
 			t.Errorf("%g kHz: table threshold %g, rig %g", float64(f), ct.minDBuVm, m)
 		}
 	}

@@ -65,13 +65,14 @@ type game struct {
 	lastView  time.Time // last pan or zoom
 	savedJSON string
 
-	draws   int
-	updates int
-	started time.Time // when main began
-	frames  frameKeys // what is on screen
-	cold    coldStart
-	ready   bool
-	timing  map[string]float64 // smoothed milliseconds per part of a tick
+	draws      int
+	updates    int
+	started    time.Time // when main began
+	frames     frameKeys // what is on screen
+	cold       coldStart
+	lastUpdate time.Time
+	ready      bool
+	timing     map[string]float64 // smoothed milliseconds per part of a tick
 }
 
 // started is when the program began.
@@ -182,6 +183,10 @@ func (g *game) Update() error {
 	stepMs := float64(time.Since(t).Microseconds()) / 1000
 	g.timing["step"] = 0.8*g.timing["step"] + 0.2*stepMs
 	if !g.ready {
+		if !g.lastUpdate.IsZero() {
+			g.cold.FrameGapMs = math.Max(g.cold.FrameGapMs, float64(time.Since(g.lastUpdate).Microseconds())/1000)
+		}
+		g.lastUpdate = time.Now()
 		g.cold.Updates++
 		g.cold.StepMs += stepMs
 		g.cold.WallMs = float64(time.Since(g.started).Microseconds()) / 1000
@@ -268,6 +273,8 @@ type coldStart struct {
 	// Milliseconds from the page's navigation (performance.now) to the
 	// program's start, to its first frame (interactive: the map and the
 	// panels respond) and to the first results on screen.
+	DrawMs          float64 `json:"draw_ms"`
+	FrameGapMs      float64 `json:"frame_gap_ms"` // longest time between two updates
 	NavStartMs      float64 `json:"nav_start_ms"`
 	NavFirstFrameMs float64 `json:"nav_first_frame_ms"`
 	NavReadyMs      float64 `json:"nav_ready_ms"`
@@ -311,7 +318,11 @@ func (g *game) Draw(dst *ebiten.Image) {
 	t := time.Now()
 	lap := func(name string) {
 		now := time.Now()
-		g.timing[name] = 0.8*g.timing[name] + 0.2*float64(now.Sub(t).Microseconds())/1000
+		ms := float64(now.Sub(t).Microseconds()) / 1000
+		g.timing[name] = 0.8*g.timing[name] + 0.2*ms
+		if !g.ready {
+			g.cold.DrawMs += ms
+		}
 		t = now
 	}
 	drew := false
