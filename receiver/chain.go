@@ -383,8 +383,8 @@ func (r Rig) MinAudibleWithin(f KHz, loDBuVm, hiDBuVm float64) (float64, error) 
 }
 
 // solveDetector finds v in [lo, hi] with step(v) = v, given step(lo) ≥ lo
-// and step(hi) < hi, by the Illinois method to a relative 1e-9 (bisecting
-// instead should the bracket misbehave).
+// and step(hi) < hi, by the Illinois method to a relative 1e-9 (over the
+// whole range [0, hi] should the bracket not hold).
 func solveDetector(step func(float64) (float64, error), lo, hi float64) (float64, error) {
 	g := func(v float64) (float64, error) {
 		s, err := step(v)
@@ -399,40 +399,10 @@ func solveDetector(step func(float64) (float64, error), lo, hi float64) (float64
 		return 0, err
 	}
 	if glo < 0 || ghi > 0 { // not a bracket: fall back to the whole range
-		lo, glo = 0, math.Inf(1)
-	}
-	side := 0
-	for range 100 {
-		if hi-lo <= 1e-9*hi {
-			break
-		}
-		x := (lo + hi) / 2
-		if !math.IsInf(glo, 0) && glo != ghi {
-			x = (lo*ghi - hi*glo) / (ghi - glo)
-			if !(x > lo && x < hi) {
-				x = (lo + hi) / 2
-			}
-		}
-		gx, err := g(x)
-		if err != nil {
+		lo = 1e-12 * hi
+		if glo, err = g(lo); err != nil {
 			return 0, err
 		}
-		if math.Abs(gx) <= 1e-12*x {
-			return x, nil
-		}
-		if gx > 0 {
-			lo, glo = x, gx
-			if side == -1 {
-				ghi /= 2 // Illinois: halve the stale end's value
-			}
-			side = -1
-		} else {
-			hi, ghi = x, gx
-			if side == 1 {
-				glo /= 2
-			}
-			side = 1
-		}
 	}
-	return (lo + hi) / 2, nil
+	return illinoisRoot(g, lo, hi, glo, ghi, 1e-9*hi, 1e-12*hi)
 }

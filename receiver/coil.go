@@ -453,31 +453,8 @@ func CoilForInductance(formDiameterMm float64, awg int, uH float64) (Coil, error
 	}
 	// Illinois (modified regula falsi) on √L − √L_wanted, bracketed.
 	want := math.Sqrt(uH)
-	fLo, fHi := math.Sqrt(lLo)-want, math.Sqrt(lHi)-want
-	n, side := lo, 0
-	for range 100 {
-		n = (lo*fHi - hi*fLo) / (fHi - fLo)
-		fn := math.Sqrt(at(n)) - want
-		if fn == 0 || hi-lo < 1e-6 {
-			break
-		}
-		if (fn < 0) == (fLo < 0) {
-			lo, fLo = n, fn
-			if side == -1 {
-				fHi /= 2
-			}
-			side = -1
-		} else {
-			hi, fHi = n, fn
-			if side == 1 {
-				fLo /= 2
-			}
-			side = 1
-		}
-		if math.Abs(fn) < 1e-12*want {
-			break
-		}
-	}
+	n, _ := illinoisRoot(func(n float64) (float64, error) { return math.Sqrt(at(n)) - want, nil },
+		lo, hi, math.Sqrt(lLo)-want, math.Sqrt(lHi)-want, 1e-6, 1e-12*want)
 	n = math.Round(n*100) / 100
 	n = math.Min(math.Max(n, coilMinTurns), coilMaxTurns)
 	return Coil{FormDiameterMm: formDiameterMm, AWG: awg, Turns: n}, nil
