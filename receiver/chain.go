@@ -152,7 +152,11 @@ func (r Rig) front(f KHz) (Front, error) {
 		if r.LoadingFormMm > 0 {
 			c, err := CoilForInductance(r.LoadingFormMm, r.LoadingAWG, fr.LoadingUH)
 			if err != nil {
-				return Front{}, fmt.Errorf("loading coil at %g kHz: %w", float64(f), err)
+				// Not a bad input of the listener's: this wire cannot be
+				// brought into tune here (near half a wavelength its
+				// reactance is beyond any practical coil).
+				return Front{}, fmt.Errorf("receiver: at %g kHz this antenna would need a %.0f µH loading coil, more than a close-wound AWG %d coil on the %g mm loading form can give",
+					float64(f), fr.LoadingUH, r.LoadingAWG, r.LoadingFormMm)
 			}
 			fr.LoadingTurns, fr.LoadingQ = c.Turns, c.Q(f)
 		}

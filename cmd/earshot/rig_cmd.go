@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"flag"
 	"fmt"
 	"io"
@@ -186,7 +187,13 @@ func runRig(args []string, stdout, stderr io.Writer) int {
 	}
 	rc, err := rig.Receive(f, e)
 	if err != nil {
-		return report("rig", asUsageWith(err, rigFlagNames), stderr)
+		// A bad value is the caller's (exit 2); a rig that cannot be tuned
+		// at f is an answer of sorts, a failure (exit 1).
+		var ie *propagation.InputError
+		if errors.As(err, &ie) {
+			return report("rig", asUsageWith(err, rigFlagNames), stderr)
+		}
+		return report("rig", fmt.Errorf("%s", trimPkg(err)), stderr)
 	}
 	out := rigJSON{KHz: *khz, HeffM: round4(rc.HeffM), RradOhm: round4(rc.RradOhm), RlossOhm: round4(rc.RlossOhm),
 		XOhm: round4(rc.XOhm), LoadingUH: round4(rc.LoadingUH), LoadingTurns: math.Round(rc.LoadingTurns*10) / 10,

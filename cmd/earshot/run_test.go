@@ -61,6 +61,10 @@ func TestRun(t *testing.T) {
 		{"rig table", []string{"rig", "--khz", "600", "--field-dbuvm", "60"}, 0, `(?s)effective height.*series loading coil.*turns.*loaded Q.*bandwidth.*dB SPL.*weakest audible field`, ""},
 		{"rig help", []string{"rig", "--help"}, 0, `(?s)Safety.*--diode.*--ground-system.*--wire-m`, ""},
 		{"rig missing khz", []string{"rig"}, 2, "", `--khz is required`},
+		// 100 m of wire 10 m up is about half a wavelength at 1368 kHz,
+		// where no practical loading coil tunes it (common practice): a
+		// failure, not a usage error, and no blame on the tank-coil flag.
+		{"rig untunable", []string{"rig", "--khz", "1368", "--wire-m", "100"}, 1, "", `^earshot rig: at 1368 kHz this antenna would need a \d+ µH loading coil, more than .* can give\n$`},
 		{"rig bad khz", []string{"rig", "--khz", "5"}, 2, "", `--khz must be between 100 and 30000 kHz, got 5`},
 		{"rig bad height", []string{"rig", "--khz", "1000", "--height-m", "0.1"}, 2, "", `--height-m must be between 0.5 and 300 m, got 0.1`},
 		{"rig bad wire", []string{"rig", "--khz", "1000", "--wire-m", "-4"}, 2, "", `--wire-m must be`},
