@@ -5,10 +5,12 @@ package main
 import (
 	"fmt"
 	"image/color"
+	"strings"
 
 	"earshot/wasm/screen"
 
 	"github.com/hajimehoshi/ebiten/v2"
+	"github.com/hajimehoshi/ebiten/v2/text/v2"
 )
 
 // drawCard shows the selected station: its waves, the chain stage by
@@ -47,7 +49,7 @@ func (g *game) drawCard(dst *ebiten.Image) {
 			add("series capacitor %.0f pF", rc.SeriesPF)
 		}
 		add("tuned circuit: loaded Q %.0f · detector %.2f mV RF", rc.Tank.LoadedQ, rc.DetectorMV)
-		add("detector %.3f V DC · audio %.2f mV · %.0f dB SPL", rc.DCV, rc.AudioMV, rc.SPL)
+		add("detector %s DC · audio %.2f mV · %.0f dB SPL", volts(rc.DCV), rc.AudioMV, rc.SPL)
 	} else if err != nil {
 		add("the rig cannot receive it: %v", err)
 	}
@@ -66,6 +68,27 @@ func (g *game) drawCard(dst *ebiten.Image) {
 	add("%s", h.Verdict)
 
 	c := g.lay.Card
+	// Long lines wrap at spaces to the card's width.
+	var wrapped []string
+	for i, l := range lines {
+		f := g.small
+		if i == 0 {
+			f = g.bold
+		}
+		for text.Advance(l, f) > c.W-34 {
+			cut := len(l)
+			for cut > 0 && text.Advance(l[:cut], f) > c.W-34 {
+				cut = strings.LastIndexByte(l[:cut], ' ')
+			}
+			if cut <= 0 {
+				break
+			}
+			wrapped = append(wrapped, l[:cut])
+			l = "  " + l[cut+1:]
+		}
+		wrapped = append(wrapped, l)
+	}
+	lines = wrapped
 	c.H = float64(len(lines))*17 + 14
 	g.widgets["card"] = c
 	fillRect(dst, c, color.RGBA{26, 30, 38, 235})
@@ -80,5 +103,12 @@ func (g *game) drawCard(dst *ebiten.Image) {
 	cl := screen.Rect{X: c.X + c.W - 22, Y: c.Y + 4, W: 18, H: 18}
 	g.widgets["card.close"] = cl
 	g.label(dst, "×", cl.X+4, cl.Y, g.face, colText)
-	_ = ebiten.Image{}
+}
+
+// volts writes a voltage in V or mV, whichever reads better.
+func volts(v float64) string {
+	if v < 0.1 {
+		return fmt.Sprintf("%.2f mV", v*1e3)
+	}
+	return fmt.Sprintf("%.2f V", v)
 }
