@@ -17,15 +17,15 @@ const (
 
 // Curve is a precomputed homogeneous ground-wave curve for one frequency and
 // one ground: the attenuation 20·log10|A| against ln d, interpolated by a
-// not-a-knot cubic spline (gonum/interp). The flat-earth and the
+// not-a-knot cubic spline (fitNotAKnot, evaluated by gonum's interp.PiecewiseCubic). The flat-earth and the
 // residue-series parts are fitted separately so that the small step
 // between the two methods at SwitchX is not smeared by the spline.
 // A Curve is immutable and safe for concurrent use.
 type Curve struct {
 	h        *Homogeneous
 	switchKm float64
-	flat     interp.NotAKnotCubic // ln d ≤ ln switchKm
-	sphere   interp.NotAKnotCubic // ln d ≥ ln switchKm
+	flat     interp.PiecewiseCubic // ln d ≤ ln switchKm, not-a-knot (fitNotAKnot)
+	sphere   interp.PiecewiseCubic // ln d ≥ ln switchKm, not-a-knot
 }
 
 // NewCurve computes the ground-wave curve at f over g (a few milliseconds).
@@ -48,7 +48,7 @@ func NewCurve(f KHz, g Ground) (*Curve, []Warning, error) {
 			fx = append(fx, u)
 			fy = append(fy, h.FlatEarthDB(math.Exp(u)))
 		}
-		if err := c.flat.Fit(fx, fy); err != nil {
+		if err := fitNotAKnot(&c.flat, fx, fy); err != nil {
 			return nil, nil, err
 		}
 	} else {
@@ -61,7 +61,7 @@ func NewCurve(f KHz, g Ground) (*Curve, []Warning, error) {
 		sx = append(sx, u)
 		sy = append(sy, h.residueDB(h.NormalisedDistance(math.Exp(u))))
 	}
-	if err := c.sphere.Fit(sx, sy); err != nil {
+	if err := fitNotAKnot(&c.sphere, sx, sy); err != nil {
 		return nil, nil, err
 	}
 	return c, warn, nil

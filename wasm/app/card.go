@@ -10,7 +10,6 @@ import (
 	"earshot/wasm/screen"
 
 	"github.com/hajimehoshi/ebiten/v2"
-	"github.com/hajimehoshi/ebiten/v2/text/v2"
 )
 
 // drawCard shows the selected station: its waves, the chain stage by
@@ -75,9 +74,9 @@ func (g *game) drawCard(dst *ebiten.Image) {
 		if i == 0 {
 			f = g.bold
 		}
-		for text.Advance(l, f) > c.W-34 {
+		for textWidth(l, f) > c.W-34 {
 			cut := len(l)
-			for cut > 0 && text.Advance(l[:cut], f) > c.W-34 {
+			for cut > 0 && textWidth(l[:cut], f) > c.W-34 {
 				cut = strings.LastIndexByte(l[:cut], ' ')
 			}
 			if cut <= 0 {

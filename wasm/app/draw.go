@@ -43,32 +43,56 @@ func (g *game) label(dst *ebiten.Image, s string, x, y float64, face *text.GoTex
 	text.Draw(dst, s, face, op)
 }
 
-// fitText shortens s with an ellipsis to fit w pixels (by bisection on
-// the number of runes; the answers are remembered, measuring is slow).
+// fitText shortens s with an ellipsis to fit w pixels. Widths are summed
+// from each rune's advance (measured once per face: shaping whole strings
+// is slow in WebAssembly, and kerning does not matter for a cut).
 func fitText(s string, face *text.GoTextFace, w float64) string {
 	key := fitKey{s, face.Size, w}
 	if v, ok := fitMemo[key]; ok {
 		return v
 	}
 	out := s
-	if text.Advance(s, face) > w {
+	if textWidth(s, face) > w {
+		ell := runeAdvance('…', face)
 		r := []rune(s)
-		lo, hi := 0, len(r) // r[:lo]+"…" fits; r[:hi]+"…" does not
-		for hi-lo > 1 {
-			mid := (lo + hi) / 2
-			if text.Advance(string(r[:mid])+"…", face) <= w {
-				lo = mid
-			} else {
-				hi = mid
-			}
+		width, n := 0.0, 0
+		for n < len(r) && width+runeAdvance(r[n], face)+ell <= w {
+			width += runeAdvance(r[n], face)
+			n++
 		}
-		out = string(r[:lo]) + "…"
+		out = string(r[:n]) + "…"
 	}
 	if len(fitMemo) > 4000 {
 		clear(fitMemo)
 	}
 	fitMemo[key] = out
 	return out
+}
+
+// textWidth is the sum of the runes' advances.
+func textWidth(s string, face *text.GoTextFace) float64 {
+	w := 0.0
+	for _, r := range s {
+		w += runeAdvance(r, face)
+	}
+	return w
+}
+
+type runeKey struct {
+	r    rune
+	face *text.GoTextFace
+}
+
+var runeAdvances = map[runeKey]float64{}
+
+func runeAdvance(r rune, face *text.GoTextFace) float64 {
+	k := runeKey{r, face}
+	if v, ok := runeAdvances[k]; ok {
+		return v
+	}
+	v := text.Advance(string(r), face)
+	runeAdvances[k] = v
+	return v
 }
 
 type fitKey struct {
