@@ -705,7 +705,7 @@ func (g *game) drawResults(dst *ebiten.Image) {
 	}
 	rows := append([]plan.Heard(nil), pr.Heard...)
 	key := func(h plan.Heard) float64 {
-		return sortKey(g.ui.sortCol, h.Station.ID, float64(h.Station.KHz), h.DistKm, h.FieldDB, h.MarginDB, h.Chance)
+		return sortKey(g.ui.sortCol, float64(h.Station.KHz), h.DistKm, h.FieldDB, h.MarginDB, h.Chance)
 	}
 	sort.SliceStable(rows, func(i, j int) bool {
 		if g.ui.sortCol == colStation {

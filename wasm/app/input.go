@@ -13,7 +13,6 @@ import (
 
 	"earshot/assets"
 	"earshot/receiver"
-	"earshot/wasm/screen"
 
 	"github.com/hajimehoshi/ebiten/v2"
 	"github.com/hajimehoshi/ebiten/v2/inpututil"
@@ -449,8 +448,8 @@ func (g *game) importFile(p picked) {
 	g.fitRegion()
 }
 
-// sortHeard orders the result list by the chosen column.
-func sortKey(col int, id string, khz, km, field, margin, chance float64) float64 {
+// sortKey is a result line's value in the chosen numeric column.
+func sortKey(col int, khz, km, field, margin, chance float64) float64 {
 	switch col {
 	case colKHz:
 		return khz
@@ -463,5 +462,3 @@ func sortKey(col int, id string, khz, km, field, margin, chance float64) float64
 	}
 	return margin
 }
-
-var _ = screen.Rect{}

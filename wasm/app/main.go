@@ -202,8 +202,6 @@ func (g *game) Update() error {
 // within 300 km of the first spot.
 func (g *game) fitRegion() {
 	sp := g.s.Spot().Place
-	places := []any{}
-	_ = places
 	minLat, maxLat, minLon, maxLon := sp.LatDeg(), sp.LatDeg(), sp.LonDeg(), sp.LonDeg()
 	grow := func(lat, lon float64) {
 		minLat, maxLat = math.Min(minLat, lat), math.Max(maxLat, lat)
