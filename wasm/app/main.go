@@ -129,6 +129,7 @@ func newGame() (*game, error) {
 			g.savedJSON = saved
 		}
 	}
+	// The Go fonts, embedded (their licence: FONTS.txt), loaded once.
 	for _, src := range []struct {
 		face **text.GoTextFace
 		ttf  []byte
