@@ -140,6 +140,7 @@ type fixture struct {
 	bin     string // the earshot binary, built after "make app"
 	url     string // where "earshot serve" serves the app
 	srvErr  *lockedBuffer
+	stopSrv func() // stops "earshot serve" (once; later calls do nothing)
 	browser context.Context
 	stop    []func()
 }
@@ -258,17 +259,21 @@ func (f *fixture) serve() error {
 	if err := cmd.Start(); err != nil {
 		return fmt.Errorf("e2e: earshot serve: %v", err)
 	}
-	f.stop = append(f.stop, func() {
-		cmd.Process.Signal(os.Interrupt)
-		done := make(chan struct{})
-		go func() { cmd.Wait(); close(done) }()
-		select {
-		case <-done:
-		case <-time.After(10 * time.Second):
-			cmd.Process.Kill()
-			<-done
-		}
-	})
+	var once sync.Once
+	f.stopSrv = func() {
+		once.Do(func() {
+			cmd.Process.Signal(os.Interrupt)
+			done := make(chan struct{})
+			go func() { cmd.Wait(); close(done) }()
+			select {
+			case <-done:
+			case <-time.After(10 * time.Second):
+				cmd.Process.Kill()
+				<-done
+			}
+		})
+	}
+	f.stop = append(f.stop, f.stopSrv)
 	line := make(chan string, 1)
 	go func() {
 		sc := bufio.NewScanner(stdout)
@@ -704,6 +709,38 @@ func TestServedApp(t *testing.T) {
 	if s.Spot != start.Spot || len(s.Results) == 0 {
 		t.Errorf("e2e: after corrupted storage spot %q with %d results, want the demo's %q", s.Spot, len(s.Results), start.Spot)
 	}
+
+	// 9. Offline: with the page under its service worker, stop the server
+	// and reload; the app must come back from the worker's cache (the
+	// issue: "a service worker lets the page reopen with no server
+	// running"). Last, since it ends the server.
+	if _, err := tb.waitEval("the service worker controls the page", stepLimit,
+		`!!(navigator.serviceWorker && navigator.serviceWorker.controller)`); err != nil {
+		t.Fatalf("e2e: %v", err)
+	}
+	f.stopSrv()
+	if resp, err := (&http.Client{Timeout: 3 * time.Second}).Get(f.url); err == nil {
+		resp.Body.Close()
+		t.Fatalf("e2e: %s still answers after the server was stopped", f.url)
+	}
+	readyIn = tb.reload()
+	s = tb.waitState("fresh with the server stopped", stepLimit, func(s appState) bool { return s.Fresh })
+	t.Logf("offline reload (service worker): earshot_ready in %v, %d stations", readyIn.Round(time.Millisecond), len(s.Results))
+	if len(s.Results) == 0 {
+		t.Errorf("e2e: offline reload shows no results")
+	}
+}
+
+// waitEval polls a JavaScript expression until it is true.
+func (tb *tab) waitEval(what string, limit time.Duration, expr string) (bool, error) {
+	end := time.Now().Add(limit)
+	for time.Now().Before(end) {
+		if ok, err := eval[bool](tb, expr); err == nil && ok {
+			return true, nil
+		}
+		time.Sleep(100 * time.Millisecond)
+	}
+	return false, fmt.Errorf("%s: not within %v", what, limit)
 }
 
 // TestSingleFile opens the single offline page that "earshot dist"

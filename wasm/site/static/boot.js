@@ -104,14 +104,18 @@
   function keepOffline() {
     if (packed || !("serviceWorker" in navigator)) return;
     if (location.protocol !== "http:" && location.protocol !== "https:") return;
-    navigator.serviceWorker
-      .register("sw.js")
+    navigator.serviceWorker.register("sw.js").then(
       // Look for a new build now rather than whenever the browser gets
-      // round to it, so that the next reload shows it.
-      .then((reg) => reg.update())
-      .catch((err) => {
+      // round to it, so that the next reload shows it. With no server
+      // (offline) there is nothing to look for: the copy in hand stays.
+      (reg) =>
+        reg.update().catch(() => {
+          console.info("earshot: offline; the stored copy of the app is in use");
+        }),
+      (err) => {
         console.warn("earshot: no offline copy:", err);
-      });
+      },
+    );
   }
 
   function watchReady() {
