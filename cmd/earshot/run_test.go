@@ -14,16 +14,20 @@ import (
 
 var update = flag.Bool("update", false, "rewrite the golden files in testdata/")
 
+// cliCase is a command line and what it must give: exit status, and
+// stdout and stderr patterns.
+type cliCase struct {
+	name   string
+	args   []string
+	status int
+	stdout string // regexp, "" for empty
+	stderr string // regexp, "" for empty
+}
+
 // TestRun calls run with buffers: {args, exit status, stdout and stderr
 // patterns} (after the table tests of Go's cmd/doc).
 func TestRun(t *testing.T) {
-	for _, c := range []struct {
-		name   string
-		args   []string
-		status int
-		stdout string // regexp, "" for empty
-		stderr string // regexp, "" for empty
-	}{
+	for _, c := range []cliCase{
 		{"no command", nil, 2, "", `^earshot: no command given`},
 		{"help", []string{"--help"}, 0, `(?s)groundwave.*demo|demo.*groundwave`, ""},
 		{"unknown command", []string{"frobnicate"}, 2, "", `^earshot: unknown command "frobnicate"`},

@@ -24,13 +24,7 @@ import (
 // usage errors exit 2 with one line on stderr naming the flag (the flag
 // package's convention: exit status 2 for usage errors).
 func TestServeUsage(t *testing.T) {
-	for _, c := range []struct {
-		name   string
-		args   []string
-		status int
-		stdout string // regexp, "" for empty
-		stderr string // regexp, "" for empty
-	}{
+	for _, c := range []cliCase{
 		{"serve help", []string{"serve", "--help"}, 0, `(?s)--addr.*127\.0\.0\.1:8417.*--public`, ""},
 		{"listed in help", []string{"--help"}, 0, `(?s)dist\s+write the browser app as one offline HTML file.*serve\s+serve the browser app on this machine`, ""},
 		{"any interface", []string{"serve", "--addr", "0.0.0.0:8417"}, 2, "", `^earshot serve: --addr host must be loopback \(127\.0\.0\.0/8, ::1 or localhost\) unless --public is given, got "0\.0\.0\.0:8417"\n$`},

@@ -852,18 +852,8 @@ func placeSpot(t *testing.T, tb *tab, s appState) {
 
 // cliPrediction is the part of `earshot predict --json` compared here.
 type cliPrediction struct {
-	Audible  int `json:"audible"`
-	Stations []struct {
-		ID       string  `json:"id"`
-		KHz      float64 `json:"khz"`
-		Km       float64 `json:"km"`
-		EDB      float64 `json:"e_dbuvm"`
-		MarginDB float64 `json:"margin_db"`
-		Chance   float64 `json:"chance"`
-		Audible  bool    `json:"audible"`
-		MaskedBy *string `json:"masked_by"`
-		Verdict  string  `json:"verdict"`
-	} `json:"stations"`
+	Audible  int            `json:"audible"`
+	Stations []stationState `json:"stations"` // the same names as the app's results
 }
 
 // compareWithCLI runs earshot with the state's cli_args and compares.
