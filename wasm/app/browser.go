@@ -114,7 +114,7 @@ func takePicked() []picked {
 //	earshot_project(lat, lon)  the CSS pixel of a place on the map, [x, y]
 type hook struct {
 	mu      sync.Mutex
-	state   string
+	state   func() string
 	draws   int
 	ready   bool
 	project func(lat, lon float64) (float64, float64)
@@ -127,8 +127,12 @@ func installHook() {
 	g.Set("earshot_ready", false)
 	g.Set("earshot_state", js.FuncOf(func(this js.Value, args []js.Value) any {
 		theHook.mu.Lock()
-		defer theHook.mu.Unlock()
-		return theHook.state
+		state := theHook.state
+		theHook.mu.Unlock()
+		if state == nil {
+			return `{"ready":false}`
+		}
+		return state()
 	}))
 	g.Set("earshot_draws", js.FuncOf(func(this js.Value, args []js.Value) any {
 		theHook.mu.Lock()
@@ -150,7 +154,7 @@ func installHook() {
 	}))
 }
 
-func hookPublish(state string, draws int, ready bool, project func(lat, lon float64) (float64, float64)) {
+func hookPublish(state func() string, draws int, ready bool, project func(lat, lon float64) (float64, float64)) {
 	theHook.mu.Lock()
 	theHook.state, theHook.draws, theHook.project = state, draws, project
 	was := theHook.ready

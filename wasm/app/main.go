@@ -285,17 +285,26 @@ type overlayStateJSON struct {
 	Done bool    `json:"done"`
 }
 
+// publish tells the test hook what it needs every frame; the state itself
+// is encoded only when the hook asks for it (stateJSON).
 func (g *game) publish() {
+	v := g.view
+	hookPublish(g.stateJSON, g.draws, g.ready, func(lat, lon float64) (float64, float64) { return v.ToScreen(lat, lon) })
+}
+
+// stateJSON encodes the app's state for earshot_state(). The browser calls
+// it between frames, on the thread that runs Update and Draw, so it reads
+// the game without locks.
+func (g *game) stateJSON() string {
 	o := g.s.Overlay()
 	st := appState{Snapshot: g.s.Snapshot(), Ready: g.ready, Draws: g.draws, FPS: ebiten.ActualFPS(), MouseDown: g.in.leftDown,
 		Editing: g.ui.edit.field, Notice: g.ui.notice, Work: g.progress.Job, Widgets: g.widgets, Screen: [2]int{g.w, g.h}, Timing: g.timing, Updates: g.updates, Cold: g.cold,
 		Overlay: overlayStateJSON{On: o.Enabled, Frac: o.Frac, Done: o.Done}}
 	data, err := json.Marshal(st)
 	if err != nil {
-		data = []byte(fmt.Sprintf(`{"error":%q}`, err.Error()))
+		return fmt.Sprintf(`{"error":%q}`, err.Error())
 	}
-	v := g.view
-	hookPublish(string(data), g.draws, g.ready, func(lat, lon float64) (float64, float64) { return v.ToScreen(lat, lon) })
+	return string(data)
 }
 
 func (g *game) Draw(dst *ebiten.Image) {
